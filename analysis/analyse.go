@@ -1,0 +1,440 @@
+package analysis
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"lagwright/calc"
+	"lagwright/catalog"
+)
+
+// Caution is shown with every result: the estimates stand on published methods, and
+// the adopted codes and a licensed engineer govern.
+const Caution = "Estimates by published methods (ASTM C680 / ISO 12241 approach). Actual performance depends on " +
+	"workmanship, moisture, ageing and jacket condition. The adopted codes and a licensed engineer govern where the work is built."
+
+// Run decodes one JSON request and analyses it. Bad input returns FieldErrors.
+func Run(data []byte, r Resolver) (*Output, error) {
+	var in Input
+	decodeErr := DecodeStrict(data, &in)
+	var decoded FieldErrors
+	if decodeErr != nil {
+		if !errors.As(decodeErr, &decoded) || (len(decoded) == 1 && decoded[0].Field == "") {
+			return nil, decodeErr // not an object: nothing more to say
+		}
+	}
+	// Validate what could be read too, so every bad field is named at once; a field that
+	// could not be read is reported once, for its type.
+	out, err := Analyse(in, r)
+	var checked FieldErrors
+	if err != nil && !errors.As(err, &checked) {
+		return nil, err
+	}
+	if len(decoded) == 0 && len(checked) == 0 {
+		return out, nil
+	}
+	all := slices.Clone(decoded)
+	for _, fe := range checked {
+		if !slices.ContainsFunc(decoded, func(d FieldError) bool { return d.Field == fe.Field }) {
+			all = append(all, fe)
+		}
+	}
+	slices.SortStableFunc(all, func(a, b FieldError) int { return strings.Compare(a.Field, b.Field) })
+	return nil, all
+}
+
+// Analyse validates the input, solves the line at its design conditions, judges every
+// criterion at its own conditions and prices the thicknesses.
+func Analyse(in Input, r Resolver) (*Output, error) {
+	l, err := resolve(in, r)
+	if err != nil {
+		return nil, err
+	}
+	a := &analyser{l: l, cache: map[solveKey]calc.Result{}}
+	return a.run()
+}
+
+// analyser carries one analysis and a cache of solves, so criteria sharing conditions
+// and thicknesses never solve twice.
+type analyser struct {
+	l     *line
+	cache map[solveKey]calc.Result
+	out   Output
+}
+
+type solveKey struct {
+	air   calc.Air
+	fluid float64
+	tMM   float64 // sized-layer thickness; -1 = as specified, -2 = bare
+}
+
+const (
+	asSpecified = -1.0
+	bareSurface = -2.0
+)
+
+// system returns the system with the sized (outermost) layer at tMM. tMM 0 removes the
+// sized layer; with no layer left the surface is bare (bare emittance, correlations).
+func (a *analyser) system(tMM float64) calc.System {
+	l := a.l
+	switch {
+	case tMM == asSpecified:
+		return l.base
+	case tMM == bareSurface:
+		return l.bare
+	}
+	n := len(l.base.Layers)
+	if tMM == 0 {
+		if n <= 1 {
+			return l.bare
+		}
+		s := l.base
+		s.Layers = l.base.Layers[:n-1]
+		return s
+	}
+	s := l.base
+	s.Layers = slices.Clone(l.base.Layers)
+	s.Layers[n-1].Thickness = tMM / 1000 * l.installed[n-1]
+	return s
+}
+
+func (a *analyser) solve(tMM, fluidC float64, air calc.Air) (calc.Result, error) {
+	k := solveKey{air: air, fluid: fluidC, tMM: tMM}
+	if r, ok := a.cache[k]; ok {
+		return r, nil
+	}
+	r, err := calc.Solve(a.system(tMM), fluidC, air)
+	if err != nil {
+		return r, fmt.Errorf("heat balance: %w", err)
+	}
+	a.cache[k] = r
+	return r, nil
+}
+
+func (a *analyser) run() (*Output, error) {
+	l := a.l
+	o := &a.out
+	o.MethodVersion = calc.MethodVersion
+	o.Geometry = l.in.Geometry
+	o.OperatingTempC = round(l.opC, 3)
+	if l.shape.IsPipe() {
+		o.PipeODmm = ptr(round(l.base.PipeOD*1000, 2))
+	}
+	for i, ly := range l.base.Layers {
+		o.InsulationMM += ly.Thickness * 1000 / l.installed[i]
+	}
+	o.InsulationMM = round(o.InsulationMM, 2)
+
+	main, err := a.solve(asSpecified, l.opC, l.design.air)
+	if err != nil {
+		return nil, err
+	}
+	bare, err := a.solve(bareSurface, l.opC, l.design.air)
+	if err != nil {
+		return nil, err
+	}
+	a.shapeHeatBalance(main, bare)
+	if err := a.dewPoint(); err != nil {
+		return nil, err
+	}
+	if err := a.alongRun(main); err != nil {
+		return nil, err
+	}
+	if err := a.freezeTimes(); err != nil {
+		return nil, err
+	}
+	if err := a.size(); err != nil {
+		return nil, err
+	}
+	a.cautions()
+	o.ConditionsUsed = ConditionsUsed{Design: l.design.out(), Personnel: l.personnel.out(),
+		Condensation: l.condensation.out(), Economics: l.econ.out()}
+	if l.crit.freezeHours != nil || o.FreezeHoursTo0C != nil {
+		f := l.freeze.out()
+		f.InitialTempC = ptr(a.freezeInitial())
+		o.ConditionsUsed.Freeze = &f
+	}
+	o.Assumptions = nonNil(l.assumptions)
+	o.Warnings = nonNil(dedupe(l.warnings))
+	return o, nil
+}
+
+func (a *analyser) shapeHeatBalance(main, bare calc.Result) {
+	l, o := a.l, &a.out
+	if !l.shape.IsFlat() {
+		o.HeatFlowWPerM = ptr(round(main.HeatFlowPerM, 4))
+		o.BareHeatFlow = ptr(round(bare.HeatFlowPerM, 4))
+		o.OuterAreaM2PerM = ptr(round(main.OuterAreaPerM, 5))
+		if l.lengthM > 0 {
+			o.EquivalentLengthM = ptr(round(l.equivLengthM, 3))
+			o.HeatFlowW = ptr(round(main.HeatFlowPerM*l.equivLengthM, 2))
+		}
+	} else if l.areaM2 > 0 {
+		o.HeatFlowW = ptr(round(main.HeatFlux*l.areaM2, 2))
+	}
+	if main.OuterDiameter > 0 {
+		o.OuterDiameterMM = ptr(round(main.OuterDiameter*1000, 2))
+	}
+	o.HeatFluxWm2 = round(main.HeatFlux, 4)
+	o.BareHeatFluxWm2 = round(bare.HeatFlux, 4)
+	o.BareSurfaceC = round(bare.SurfaceC, 3)
+	o.SurfaceTempC = round(main.SurfaceC, 3)
+	o.PipeSurfaceC = round(main.PipeSurfaceC, 3)
+	o.SurfaceCoeff = SurfaceCoeff{Convection: round(main.HConv, 4), Radiation: round(main.HRad, 4)}
+	o.InterfaceTempsC = []float64{}
+	o.Layers = []LayerOut{}
+	for i, ls := range main.Layers {
+		o.InterfaceTempsC = append(o.InterfaceTempsC, round(ls.InnerC, 3))
+		o.Layers = append(o.Layers, LayerOut{Material: l.layerMaterials[i], ThicknessMM: round(l.base.Layers[i].Thickness*1000, 2),
+			NominalThicknessMM: round(l.base.Layers[i].Thickness*1000/l.installed[i], 2),
+			KUsed:              round(ls.K, 6), MeanTempC: round(ls.MeanC, 3), InnerTempC: round(ls.InnerC, 3), OuterTempC: round(ls.OuterC, 3)})
+	}
+	for _, f := range main.Faces {
+		o.Faces = append(o.Faces, FaceOut{Face: f.Name, SurfaceTempC: round(f.SurfaceC, 3),
+			HeatFlowWPerM: round(f.HeatFlowPerM, 4), HeatFluxWm2: round(f.HeatFlux, 4)})
+	}
+	if len(l.base.Layers) > 0 && bare.HeatFlux != 0 && math.Signbit(bare.HeatFlux) == math.Signbit(main.HeatFlux) {
+		o.EfficiencyPct = ptr(round(100*(1-main.HeatFlowPerM/bare.HeatFlowPerM), 3))
+		if *o.EfficiencyPct < 0 {
+			l.warn("the insulation as specified increases the heat flow over the bare surface (below the critical radius)")
+		}
+	}
+	l.warnings = append(l.warnings, main.Warnings...)
+	a.pipeMaterialCautions()
+}
+
+// pipeMaterialCautions warns of the pipe-material risks that insulation brings.
+func (a *analyser) pipeMaterialCautions() {
+	l := a.l
+	if !l.shape.IsPipe() || l.pipeMat.Slug == "" || len(l.base.Layers) == 0 {
+		return
+	}
+	pm := l.pipeMat
+	if pm.CUIMaxC > pm.CUIMinC && l.opC >= pm.CUIMinC && l.opC <= pm.CUIMaxC {
+		l.warn("%s at %.0f °C lies in the usual range for corrosion under insulation (%.0f to %.0f °C): coat the pipe and keep the jacket sealed",
+			pm.Name, l.opC, pm.CUIMinC, pm.CUIMaxC)
+	}
+	if pm.SCCMaxC > pm.SCCMinC && l.opC >= pm.SCCMinC && l.opC <= pm.SCCMaxC {
+		l.warn("%s at %.0f °C: use insulation tested for leachable chlorides (ASTM C795) to avoid stress-corrosion cracking", pm.Name, l.opC)
+	}
+	if pm.MaxServiceC != 0 && l.opC > pm.MaxServiceC {
+		l.warn("%s is above its usual service limit (%.0f °C) at %.0f °C", pm.Name, pm.MaxServiceC, l.opC)
+	}
+}
+
+// dewPoint reports the dew (or frost) point and the margin of the coldest surface at
+// the condensation conditions, whenever a humidity is known.
+func (a *analyser) dewPoint() error {
+	l, o := a.l, &a.out
+	set := l.condensation
+	if set.rh == nil {
+		return nil
+	}
+	dp, err := calc.DewPoint(set.air.TempC, *set.rh)
+	if err != nil {
+		return fmt.Errorf("dew point: %w", err)
+	}
+	o.DewPointC = ptr(round(dp, 3))
+	o.DewPointKind = "dew point"
+	if calc.IsFrostPoint(dp) {
+		o.DewPointKind = "frost point"
+	}
+	r, err := a.solve(asSpecified, l.opC, set.air)
+	if err != nil {
+		return err
+	}
+	o.CondensationMarginK = ptr(round(coldest(r)-dp, 3))
+	return nil
+}
+
+// coldest is the coldest outer-surface temperature (the coldest duct face).
+func coldest(r calc.Result) float64 {
+	t := r.SurfaceC
+	for _, f := range r.Faces {
+		t = math.Min(t, f.SurfaceC)
+	}
+	return t
+}
+
+// hottest is the hottest outer-surface temperature (the hottest duct face).
+func hottest(r calc.Result) float64 {
+	t := r.SurfaceC
+	for _, f := range r.Faces {
+		t = math.Max(t, f.SurfaceC)
+	}
+	return t
+}
+
+// runSegments is the number of segments the run is marched in.
+const runSegments = 10
+
+// alongRun gives the outlet temperature (with flow) or the condensate load (steam).
+func (a *analyser) alongRun(main calc.Result) error {
+	l, o := a.l, &a.out
+	if l.steamAbsPa > 0 && l.fluid == "steam" {
+		o.SteamSatTempC = ptr(round(l.opC, 3))
+		hfg, err := calc.SteamLatentHeat(l.steamAbsPa)
+		if err != nil {
+			return fmt.Errorf("steam latent heat: %w", err)
+		}
+		if l.lengthM > 0 {
+			o.CondensateKgPerH = ptr(round(calc.CondensateKgPerH(main.HeatFlowPerM*l.equivLengthM, hfg), 4))
+			l.assume("condensate from the run's heat loss with latent heat %.1f kJ/kg (IAPWS-IF97)", hfg/1000)
+		} else {
+			l.warn("give length_m for the run's condensate load")
+		}
+		return nil
+	}
+	if l.in.Flow == nil || l.lengthM == 0 {
+		return nil
+	}
+	out, err := a.outlet(asSpecified)
+	if err != nil {
+		return err
+	}
+	o.OutletTempC = ptr(round(out, 4))
+	o.TempChangeK = ptr(round(l.opC-out, 4))
+	l.assume("temperature change marched in %d segments over the length plus fittings (%.1f m), at the design conditions", runSegments, l.equivLengthM)
+	return nil
+}
+
+func (a *analyser) outlet(tMM float64) (float64, error) {
+	l := a.l
+	q := func(fluidC float64) (float64, error) {
+		r, err := a.solve(tMM, fluidC, l.design.air)
+		return r.HeatFlowPerM, err
+	}
+	out, err := calc.OutletTemp(l.opC, l.design.air.TempC, l.equivLengthM, *l.in.Flow.MassFlowKgS, l.cpJkgK, q, runSegments)
+	if err != nil {
+		return 0, fmt.Errorf("temperature along the run: %w", err)
+	}
+	return out, nil
+}
+
+func (a *analyser) freezeInitial() float64 {
+	if a.l.freeze.initial != nil {
+		return *a.l.freeze.initial
+	}
+	return a.l.opC
+}
+
+// freezeApplies reports whether stagnant water in this line can freeze at the freeze
+// conditions.
+func (a *analyser) freezeApplies() bool {
+	l := a.l
+	return l.fluid == "water" && l.shape.IsPipe() && l.freeze.air.TempC < 0 && a.freezeInitial() > 0
+}
+
+func (a *analyser) freezeTimes() error {
+	l, o := a.l, &a.out
+	if !a.freezeApplies() {
+		if l.crit.freezeHours != nil {
+			l.assume("freeze protection: the freeze conditions are not below 0 °C (or the water starts at or below 0 °C), so nothing to size")
+		}
+		return nil
+	}
+	h0, hf, err := a.freezeHours(asSpecified)
+	if err != nil {
+		return err
+	}
+	o.FreezeHoursTo0C = ptr(round(h0, 3))
+	o.FreezeHoursToFreeze = ptr(round(hf, 3))
+	l.assume("freeze times for stagnant water (ASHRAE Fundamentals ch. 23 cooling form with the wall's heat capacity and the outer film; "+
+		"ISO 12241 §6.2 form for freezing %.0f %% of the water); inner film and wall resistance neglected", 100*l.crit.freezeFraction)
+	return nil
+}
+
+// freezeHours gives hours to 0 °C and to the frozen fraction with the sized layer at tMM.
+func (a *analyser) freezeHours(tMM float64) (float64, float64, error) {
+	l := a.l
+	sys := a.system(tMM)
+	ti := a.freezeInitial()
+	air := l.freeze.air
+	mid := ti / 2
+	rMid, err := a.solve(tMM, mid, air)
+	if err != nil {
+		return 0, 0, err
+	}
+	r0, err := a.solve(tMM, 0, air)
+	if err != nil {
+		return 0, 0, err
+	}
+	di := sys.PipeOD - 2*sys.PipeWall
+	area := math.Pi * di * di / 4
+	wallArea := math.Pi * (sys.PipeOD*sys.PipeOD - di*di) / 4
+	in := calc.FreezeInput{
+		WaterCapPerM:  calc.WaterDensity * calc.WaterCp * area,
+		WallCapPerM:   wallArea * l.pipeMat.Density * l.pipeMat.SpecificHeat,
+		WaterMassPerM: calc.WaterDensity * area,
+		RCoolPerM:     (mid - air.TempC) / rMid.HeatFlowPerM,
+		RFreezePerM:   (0 - air.TempC) / r0.HeatFlowPerM,
+		InitialC:      ti,
+		AirC:          air.TempC,
+		Fraction:      l.crit.freezeFraction,
+	}
+	h0, hf, err := calc.FreezeTimes(in)
+	if err != nil {
+		if errors.Is(err, calc.ErrNoFreeze) {
+			return math.Inf(1), math.Inf(1), nil
+		}
+		return 0, 0, fmt.Errorf("freeze time: %w", err)
+	}
+	return h0, hf, nil
+}
+
+func (a *analyser) cautions() {
+	l, o := a.l, &a.out
+	o.Cautions = []string{Caution}
+	if l.opC > l.crit.maxSurfaceC {
+		o.Cautions = append(o.Cautions, "Personnel protection: a surface at the limit can still burn on long contact; "+
+			"public and healthcare areas often need lower limits, and guards are an alternative.")
+	}
+	if l.opC < l.condensation.air.TempC {
+		o.Cautions = append(o.Cautions, "Condensation control assumes a continuous, sealed vapour retarder; wet insulation loses "+
+			"its resistance and can hide corrosion.")
+	}
+	if l.opC < l.condensation.air.TempC {
+		l.warn("below-ambient line: it needs a continuous vapour retarder sealed at every lap and joint, with vapour stops at fittings and at intervals")
+		if len(l.base.Layers) > 0 && (l.jacket == nil || !l.jacket.VapourRetarder) {
+			l.warn("the jacket given is not a vapour retarder: specify a vapour-retarder jacket or coating for this cold line")
+		}
+	}
+	if o.FreezeHoursTo0C != nil {
+		o.Cautions = append(o.Cautions, "Insulation delays but does not prevent freezing of still water; "+
+			"drain, keep flowing or heat-trace lines that may stand in freezing weather.")
+	}
+}
+
+func nonNil(s []string) []string {
+	if s == nil {
+		return []string{}
+	}
+	return s
+}
+
+func dedupe(s []string) []string {
+	seen := map[string]bool{}
+	out := s[:0:0]
+	for _, v := range s {
+		if !seen[v] {
+			seen[v] = true
+			out = append(out, v)
+		}
+	}
+	return out
+}
+
+// round rounds to the given number of decimals, for a readable answer.
+func round(v float64, decimals int) float64 {
+	p := math.Pow(10, float64(decimals))
+	r := math.Round(v*p) / p
+	if r == 0 {
+		return 0 // no "-0"
+	}
+	return r
+}
+
+var _ = catalog.Materials

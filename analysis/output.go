@@ -1,0 +1,147 @@
+package analysis
+
+// Output is the answer for one line. Values are SI; nil pointers are JSON null: "not
+// applicable" or "not computed", with a warning or assumption saying why where it matters.
+type Output struct {
+	MethodVersion string `json:"method_version"`
+
+	Geometry          string   `json:"geometry"`
+	PipeODmm          *float64 `json:"pipe_od_mm"`
+	OperatingTempC    float64  `json:"operating_temp_c"`
+	InsulationMM      float64  `json:"insulation_thickness_mm"`
+	OuterDiameterMM   *float64 `json:"outer_diameter_mm"`
+	OuterAreaM2PerM   *float64 `json:"outer_area_m2_per_m"`
+	EquivalentLengthM *float64 `json:"equivalent_length_m"`
+
+	HeatFlowWPerM   *float64     `json:"heat_flow_w_per_m"`
+	HeatFluxWm2     float64      `json:"heat_flux_w_m2"`
+	HeatFlowW       *float64     `json:"heat_flow_w"`
+	SurfaceTempC    float64      `json:"surface_temp_c"`
+	PipeSurfaceC    float64      `json:"pipe_surface_temp_c"`
+	InterfaceTempsC []float64    `json:"interface_temps_c"`
+	Faces           []FaceOut    `json:"faces,omitempty"`
+	Layers          []LayerOut   `json:"layers"`
+	SurfaceCoeff    SurfaceCoeff `json:"surface_coeff_w_m2k"`
+	BareHeatFlow    *float64     `json:"bare_heat_flow_w_per_m"`
+	BareHeatFluxWm2 float64      `json:"bare_heat_flux_w_m2"`
+	BareSurfaceC    float64      `json:"bare_surface_temp_c"`
+	EfficiencyPct   *float64     `json:"efficiency_pct"`
+
+	DewPointC           *float64 `json:"dew_point_c"`
+	DewPointKind        string   `json:"dew_point_kind,omitempty"` // "dew point" | "frost point"
+	CondensationMarginK *float64 `json:"condensation_margin_k"`
+
+	OutletTempC         *float64 `json:"outlet_temp_c"`
+	TempChangeK         *float64 `json:"temp_change_k"`
+	CondensateKgPerH    *float64 `json:"condensate_kg_per_h"`
+	SteamSatTempC       *float64 `json:"steam_saturation_temp_c"`
+	FreezeHoursTo0C     *float64 `json:"freeze_hours_to_0c"`
+	FreezeHoursToFreeze *float64 `json:"freeze_hours_to_freeze"`
+	HeatTraceWPerM      *float64 `json:"heat_trace_w_per_m"`
+
+	Sizing     Sizing         `json:"sizing"`
+	EnergyCode *EnergyCodeRow `json:"energy_code"`
+	Economics  []EconomicsRow `json:"economics"`
+
+	ConditionsUsed ConditionsUsed `json:"conditions_used"`
+	Assumptions    []string       `json:"assumptions"`
+	Cautions       []string       `json:"cautions"`
+	Warnings       []string       `json:"warnings"`
+}
+
+// FaceOut is one face of a rectangular duct.
+type FaceOut struct {
+	Face          string  `json:"face"`
+	SurfaceTempC  float64 `json:"surface_temp_c"`
+	HeatFlowWPerM float64 `json:"heat_flow_w_per_m"`
+	HeatFluxWm2   float64 `json:"heat_flux_w_m2"`
+}
+
+// LayerOut is one layer's solved state.
+type LayerOut struct {
+	Material           string  `json:"material,omitempty"`
+	ThicknessMM        float64 `json:"thickness_mm"` // installed (compressed blankets: less than nominal)
+	NominalThicknessMM float64 `json:"nominal_thickness_mm"`
+	KUsed              float64 `json:"k_used_w_mk"`
+	MeanTempC          float64 `json:"mean_temp_c"`
+	InnerTempC         float64 `json:"inner_temp_c"`
+	OuterTempC         float64 `json:"outer_temp_c"`
+}
+
+// SurfaceCoeff is the outer-surface coefficient split into its parts.
+type SurfaceCoeff struct {
+	Convection float64 `json:"convection"`
+	Radiation  float64 `json:"radiation"`
+}
+
+// Sizing is the thinnest available thickness per criterion and the governing one.
+// Thicknesses are of the sized (outermost) layer; 0 means bare meets it.
+type Sizing struct {
+	PersonnelProtectionMM *float64    `json:"personnel_protection_mm"`
+	CondensationMM        *float64    `json:"condensation_mm"`
+	MaxHeatFlowMM         *float64    `json:"max_heat_flow_mm"`
+	MaxTempChangeMM       *float64    `json:"max_temp_change_mm"`
+	FreezeMM              *float64    `json:"freeze_mm"`
+	EnergyCodeMM          *float64    `json:"energy_code_mm"`
+	EconomicMM            *float64    `json:"economic_mm"`
+	Governing             *string     `json:"governing"`
+	GoverningThicknessMM  *float64    `json:"governing_thickness_mm"`
+	LayersProposed        []LayerPlan `json:"layers_proposed"`
+	Candidates            []float64   `json:"candidates_mm"`
+	Unmet                 []string    `json:"unmet"`
+}
+
+// LayerPlan is one layer of the proposed build-up.
+type LayerPlan struct {
+	Material    string  `json:"material,omitempty"`
+	ThicknessMM float64 `json:"thickness_mm"`
+}
+
+// EnergyCodeRow is the compliance row against an energy-code minimum table.
+type EnergyCodeRow struct {
+	Table            string    `json:"table"`
+	Edition          string    `json:"edition"`
+	Row              string    `json:"row"`
+	Column           string    `json:"column"`
+	Required         bool      `json:"required"`
+	TableThicknessMM *float64  `json:"table_thickness_mm"`
+	KAtMeanWmK       *float64  `json:"k_at_mean_w_mk"`
+	KRangeWmK        []float64 `json:"k_range_w_mk"`
+	CorrectedMM      *float64  `json:"corrected_mm"`
+	SpecifiedMM      float64   `json:"specified_mm"`
+	Pass             bool      `json:"pass"`
+	Source           string    `json:"source"`
+}
+
+// EconomicsRow is one candidate thickness priced over the life.
+type EconomicsRow struct {
+	ThicknessMM             float64  `json:"thickness_mm"`
+	HeatFlowWPerM           float64  `json:"heat_flow_w_per_m"`
+	SurfaceTempC            float64  `json:"surface_temp_c"`
+	AnnualKWh               float64  `json:"annual_kwh"`
+	AnnualCost              float64  `json:"annual_cost"`
+	InstalledCost           *float64 `json:"installed_cost"`
+	SimplePaybackYears      *float64 `json:"simple_payback_years"`
+	IncrementalPaybackYears *float64 `json:"incremental_payback_years"`
+	NPV                     *float64 `json:"npv"`
+	LifeCycleCost           *float64 `json:"life_cycle_cost"`
+	CO2Kg                   float64  `json:"co2_kg"`
+}
+
+// ConditionsUsed echoes the air each criterion was judged in.
+type ConditionsUsed struct {
+	Design       AirOut  `json:"design"`
+	Personnel    AirOut  `json:"personnel"`
+	Condensation AirOut  `json:"condensation"`
+	Freeze       *AirOut `json:"freeze"`
+	Economics    AirOut  `json:"economics"`
+}
+
+// AirOut is one resolved condition set.
+type AirOut struct {
+	AmbientTempC        float64  `json:"ambient_temp_c"`
+	SurroundingsTempC   float64  `json:"surroundings_temp_c"`
+	WindMS              float64  `json:"wind_m_s"`
+	RelativeHumidityPct *float64 `json:"relative_humidity_pct"`
+	InitialTempC        *float64 `json:"initial_temp_c,omitempty"`
+}

@@ -1,0 +1,766 @@
+package analysis
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"lagwright/calc"
+	"lagwright/catalog"
+)
+
+// Bounds on inputs: physical sense, and a ceiling on the work one request can cause.
+const (
+	maxLayers      = 10
+	maxThicknessMM = 600
+	maxCandidates  = 40
+	maxKPoints     = 30
+)
+
+// airSet is one resolved condition set.
+type airSet struct {
+	air     calc.Air
+	rh      *float64
+	initial *float64 // freeze only
+}
+
+func (a airSet) out() AirOut {
+	return AirOut{AmbientTempC: a.air.TempC, SurroundingsTempC: a.air.SurroundingsC,
+		WindMS: a.air.WindMS, RelativeHumidityPct: a.rh, InitialTempC: a.initial}
+}
+
+// line is a validated input with everything resolved: ready for calc.
+type line struct {
+	in    Input
+	shape calc.Shape
+	base  calc.System // as specified
+	bare  calc.System // no insulation, bare emittance, correlations
+
+	layerMaterials []string          // slug per layer ("" for k given directly)
+	installed      []float64         // installed / nominal thickness per layer (< 1 for compressed blankets)
+	outerMaterial  *catalog.Material // material of the sized (outermost) layer, when known
+
+	pipe      *catalog.PipeSize
+	nominalIn float64 // nominal pipe size, inches; 0 = not a pipe or unknown
+	pipeMat   catalog.PipeMaterial
+	jacket    *catalog.Jacket
+
+	fluid        string
+	opC          float64
+	steamAbsPa   float64 // > 0 for saturated steam
+	cpJkgK       float64
+	lengthM      float64 // 0 = not given
+	equivLengthM float64 // length + fittings
+	areaM2       float64 // flats: 0 = not given
+
+	design, personnel, condensation, freeze, econ airSet
+	crit                                          criteria
+	candidatesMM                                  []float64
+
+	assumptions, warnings []string
+}
+
+// criteria are the resolved sizing criteria.
+type criteria struct {
+	personnel       bool
+	maxSurfaceC     float64
+	condensation    bool
+	dewMarginK      float64
+	maxHeatFlow     *float64
+	maxTempChange   *float64
+	freezeHours     *float64
+	freezeBasis     string
+	freezeFraction  float64
+	maintainC       float64
+	heatTraceFactor float64
+	energyCode      *catalog.CodeTable
+	economic        bool
+}
+
+func (l *line) assume(format string, args ...any) {
+	l.assumptions = append(l.assumptions, fmt.Sprintf(format, args...))
+}
+
+func (l *line) warn(format string, args ...any) {
+	l.warnings = append(l.warnings, fmt.Sprintf(format, args...))
+}
+
+// rangeCheck adds an error when a given value lies outside [lo, hi].
+func rangeCheck(c *errs, field string, v *float64, lo, hi float64, unit string) {
+	if v == nil {
+		return
+	}
+	if *v < lo || *v > hi {
+		c.add(field, "must be between %s and %s %s", fmtNum(lo), fmtNum(hi), unit)
+	}
+}
+
+// positiveCheck adds an error unless 0 < v ≤ hi.
+func positiveCheck(c *errs, field string, v *float64, hi float64, unit string) {
+	if v == nil {
+		return
+	}
+	if *v <= 0 {
+		c.add(field, "must be greater than 0")
+	} else if *v > hi {
+		c.add(field, "must be at most %s %s", fmtNum(hi), unit)
+	}
+}
+
+func fmtNum(v float64) string {
+	return strings.TrimSuffix(strings.TrimRight(fmt.Sprintf("%.6f", v), "0"), ".")
+}
+
+func orDefault(p *float64, d float64) float64 {
+	if p != nil {
+		return *p
+	}
+	return d
+}
+
+func ptr[T any](v T) *T { return &v }
+
+// resolve validates the input and resolves sizes, materials, jackets and conditions.
+// Every problem is reported at once as FieldErrors.
+func resolve(in Input, r Resolver) (*line, error) {
+	var c errs
+	l := &line{in: in}
+	resolveGeometry(l, &c)
+	resolveFluid(l, &c)
+	resolveConditions(l, &c)
+	resolveLayers(l, r, &c)
+	resolveSurface(l, r, &c)
+	resolveRun(l, &c)
+	resolveCriteria(l, &c)
+	resolveEconomics(l, &c)
+	if err := c.err(); err != nil {
+		return nil, err
+	}
+	return l, nil
+}
+
+func resolveGeometry(l *line, c *errs) {
+	in := l.in
+	orient := in.Orientation
+	if orient == "" {
+		orient = "horizontal"
+	} else if orient != "horizontal" && orient != "vertical" {
+		c.add("orientation", `must be "horizontal" or "vertical"`)
+	}
+	rangeCheck(c, "height_m", in.HeightM, 0.1, 200, "m")
+	rangeCheck(c, "width_m", in.WidthM, 0.1, 200, "m")
+	rangeCheck(c, "plate_length_m", in.PlateLengthM, 0.1, 200, "m")
+	rangeCheck(c, "plate_width_m", in.PlateWidthM, 0.1, 200, "m")
+	rangeCheck(c, "inner_coeff_w_m2k", in.InnerCoeff, 1, 1e6, "W/m²·K")
+	if in.Facing != "" && !(in.Geometry == "flat" && orient == "horizontal") {
+		c.add("facing", "applies only to a horizontal flat surface")
+	} else if in.Facing != "" && in.Facing != "up" && in.Facing != "down" {
+		c.add("facing", `must be "up" or "down"`)
+	}
+	if in.Geometry != "pipe" {
+		for field, given := range map[string]bool{"pipe_od_mm": in.PipeODmm != nil, "pipe_size": in.PipeSize != "",
+			"pipe_schedule": in.PipeSchedule != "", "pipe_wall_mm": in.PipeWallMM != nil} {
+			if given {
+				c.add(field, "applies only to pipe geometry")
+			}
+		}
+	}
+	if in.Geometry != "duct" {
+		if in.DuctWidthMM != nil {
+			c.add("duct_width_mm", "applies only to duct geometry")
+		}
+		if in.DuctHeightMM != nil {
+			c.add("duct_height_mm", "applies only to duct geometry")
+		}
+	}
+
+	sys := &l.base
+	sys.InnerCoeff = orDefault(in.InnerCoeff, 0)
+	switch in.Geometry {
+	case "pipe":
+		l.shape = calc.PipeHorizontal
+		if orient == "vertical" {
+			l.shape = calc.PipeVertical
+			sys.Height = orDefault(in.HeightM, 3)
+			if in.HeightM == nil {
+				l.assume("vertical run height 3 m (default) for natural convection")
+			}
+		} else if in.HeightM != nil {
+			c.add("height_m", "applies only to vertical pipes and vertical flat surfaces")
+		}
+		resolvePipe(l, c)
+	case "duct":
+		l.shape = calc.Duct
+		if orient == "vertical" {
+			c.add("orientation", "rectangular ducts are calculated as horizontal runs; use horizontal")
+		}
+		if in.DuctWidthMM == nil {
+			c.add("duct_width_mm", "is required for a duct")
+		}
+		if in.DuctHeightMM == nil {
+			c.add("duct_height_mm", "is required for a duct")
+		}
+		rangeCheck(c, "duct_width_mm", in.DuctWidthMM, 50, 10000, "mm")
+		rangeCheck(c, "duct_height_mm", in.DuctHeightMM, 50, 10000, "mm")
+		sys.DuctWidth = orDefault(in.DuctWidthMM, 0) / 1000
+		sys.DuctHeight = orDefault(in.DuctHeightMM, 0) / 1000
+		l.assume("duct sheet resistance neglected; inner surface at the air temperature inside the duct")
+	case "flat":
+		if orient == "vertical" {
+			l.shape = calc.FlatVertical
+			sys.Height = orDefault(in.HeightM, 3)
+			sys.Width = orDefault(in.WidthM, 3)
+			if in.HeightM == nil || in.WidthM == nil {
+				l.assume("vertical surface %s m high, %s m along the wind (defaults where not given)", fmtNum(sys.Height), fmtNum(sys.Width))
+			}
+		} else {
+			l.shape = calc.FlatUp
+			if in.Facing == "down" {
+				l.shape = calc.FlatDown
+			}
+			sys.PlateLength = orDefault(in.PlateLengthM, 1)
+			sys.PlateWidth = orDefault(in.PlateWidthM, 1)
+			if in.PlateLengthM == nil || in.PlateWidthM == nil {
+				l.assume("horizontal surface %s m × %s m (defaults where not given)", fmtNum(sys.PlateLength), fmtNum(sys.PlateWidth))
+			}
+			if in.Facing == "" {
+				l.assume("horizontal surface facing up (default)")
+			}
+		}
+	case "":
+		c.add("geometry", `is required: "pipe", "duct" or "flat"`)
+	default:
+		c.add("geometry", `must be "pipe", "duct" or "flat"`)
+	}
+	if l.shape != calc.FlatVertical && in.Geometry == "flat" && in.WidthM != nil {
+		c.add("width_m", "applies only to vertical flat surfaces")
+	}
+	if in.Geometry != "flat" || orient != "horizontal" {
+		if in.PlateLengthM != nil {
+			c.add("plate_length_m", "applies only to horizontal flat surfaces")
+		}
+		if in.PlateWidthM != nil {
+			c.add("plate_width_m", "applies only to horizontal flat surfaces")
+		}
+	}
+}
+
+func resolvePipe(l *line, c *errs) {
+	in := l.in
+	sys := &l.base
+	switch {
+	case in.PipeODmm != nil && in.PipeSize != "":
+		c.add("pipe_size", "give pipe_size or pipe_od_mm, not both")
+	case in.PipeSize != "":
+		size, wall, err := catalog.LookupPipe(in.PipeSize, in.PipeSchedule)
+		if err != nil {
+			field := "pipe_size"
+			if in.PipeSchedule != "" && strings.Contains(strings.ToLower(err.Error()), "schedule") {
+				field = "pipe_schedule"
+			}
+			c.add(field, "%s", err.Error())
+			break
+		}
+		if in.PipeWallMM != nil {
+			c.add("pipe_wall_mm", "the wall comes from pipe_size and pipe_schedule; give pipe_wall_mm only with pipe_od_mm")
+		}
+		l.pipe = &size
+		l.nominalIn = size.NominalIn
+		sys.PipeOD = size.ODmm / 1000
+		sys.PipeWall = wall / 1000
+		if in.PipeSchedule == "" {
+			sched := "schedule 40"
+			if size.Kind == catalog.PipeKind("copper") {
+				sched = "type L"
+			}
+			l.assume("%s, %s wall (default) %.2f mm", size.Designation, sched, wall)
+		}
+	case in.PipeODmm != nil:
+		rangeCheck(c, "pipe_od_mm", in.PipeODmm, 3, 3000, "mm")
+		if in.PipeSchedule != "" {
+			c.add("pipe_schedule", "applies only with pipe_size")
+		}
+		sys.PipeOD = *in.PipeODmm / 1000
+		if in.PipeWallMM != nil {
+			if *in.PipeWallMM <= 0 || *in.PipeWallMM >= *in.PipeODmm/2 {
+				c.add("pipe_wall_mm", "must be greater than 0 and less than half the outside diameter")
+			}
+			sys.PipeWall = *in.PipeWallMM / 1000
+		} else {
+			l.assume("pipe wall not modelled (plain outside diameter): the insulation's inner face is at the operating temperature")
+		}
+		if n, ok := catalog.NominalAtOrBelowOD(*in.PipeODmm); ok {
+			l.nominalIn = n
+		}
+	default:
+		c.add("pipe_size", `give pipe_size ("NPS 4", "DN100", "CTS 1") or pipe_od_mm`)
+	}
+
+	slug := in.PipeMaterial
+	if slug == "" {
+		slug = "carbon_steel"
+		if l.pipe != nil && l.pipe.Kind == catalog.PipeKind("copper") {
+			slug = "copper"
+		}
+		l.assume("pipe material %s (default)", strings.ReplaceAll(slug, "_", " "))
+	}
+	pm, ok := catalog.PipeMaterialBySlug(slug)
+	if !ok {
+		c.add("pipe_material", "unknown pipe material %q (carbon_steel, stainless_steel, copper, galvanised_steel, pvc)", slug)
+	}
+	l.pipeMat = pm
+	sys.WallK = pm.WallK
+	if sys.PipeWall > 0 && in.InnerCoeff == nil {
+		l.assume("no inside film: the pipe's inner surface is at the operating temperature (conservative)")
+	}
+}
+
+// Default specific heats, J/kg·K, for the run's temperature change.
+var defaultCp = map[string]float64{
+	"water":  4186, // near 20 °C, common practice
+	"glycol": 3600, // about 40 % propylene glycol near 0 °C, from memory — give cp_j_kgk for your mix
+	"air":    1006, // dry air near 20 °C (Cengel Table A-15)
+}
+
+func resolveFluid(l *line, c *errs) {
+	in := l.in
+	l.fluid = in.Fluid
+	if l.fluid == "" {
+		l.fluid = "water"
+		if in.SteamGaugePressureKPa != nil {
+			l.fluid = "steam"
+		}
+	}
+	switch l.fluid {
+	case "water", "steam", "glycol", "refrigerant", "air", "other":
+	default:
+		c.add("fluid", `must be one of "water", "steam", "glycol", "refrigerant", "air", "other"`)
+	}
+	if in.SteamGaugePressureKPa != nil {
+		if l.fluid != "steam" {
+			c.add("steam_gauge_pressure_kpa", `applies only to fluid "steam"`)
+			return
+		}
+		p := *in.SteamGaugePressureKPa
+		if p < -100 || p > 21000 {
+			c.add("steam_gauge_pressure_kpa", "must be between -100 and 21000 kPa (gauge)")
+			return
+		}
+		abs := (p + 101.325) * 1000
+		t, err := calc.SteamSaturationTemp(abs)
+		if err != nil {
+			c.add("steam_gauge_pressure_kpa", "%s", err.Error())
+			return
+		}
+		l.steamAbsPa = abs
+		l.opC = t
+		l.assume("saturated steam at %s kPa gauge (%s kPa absolute at sea-level atmosphere 101.325 kPa): %.1f °C (IAPWS-IF97)",
+			fmtNum(p), fmtNum(p+101.325), t)
+		if in.OperatingTempC != nil && math.Abs(*in.OperatingTempC-t) > 0.5 {
+			c.add("operating_temp_c", "does not match the saturation temperature %.1f °C at the given steam pressure; give one of the two", t)
+		}
+		return
+	}
+	if in.OperatingTempC == nil {
+		if l.fluid == "steam" {
+			c.add("operating_temp_c", "is required (or steam_gauge_pressure_kpa for saturated steam)")
+		} else {
+			c.add("operating_temp_c", "is required")
+		}
+		return
+	}
+	rangeCheck(c, "operating_temp_c", in.OperatingTempC, -200, 850, "°C")
+	l.opC = *in.OperatingTempC
+	if l.fluid == "steam" && l.opC >= 0.01 && l.opC <= 373 {
+		p, err := calc.SteamSaturationPressure(l.opC)
+		if err == nil {
+			l.steamAbsPa = p
+			l.assume("steam taken as saturated at %.1f °C (%.0f kPa absolute, IAPWS-IF97)", l.opC, p/1000)
+		}
+	}
+}
+
+func resolveConditions(l *line, c *errs) {
+	in := l.in
+	if in.AmbientTempC == nil {
+		c.add("ambient_temp_c", "is required (the design air temperature around the line)")
+	}
+	rangeCheck(c, "ambient_temp_c", in.AmbientTempC, -70, 80, "°C")
+	rangeCheck(c, "surroundings_temp_c", in.SurroundingsTempC, -100, 300, "°C")
+	rangeCheck(c, "wind_m_s", in.WindMS, 0, 40, "m/s")
+	rangeCheck(c, "relative_humidity_pct", in.RelativeHumidityPct, 0.1, 100, "%")
+	amb := orDefault(in.AmbientTempC, 20)
+	l.design = airSet{air: calc.Air{TempC: amb, SurroundingsC: orDefault(in.SurroundingsTempC, amb), WindMS: orDefault(in.WindMS, 0)},
+		rh: in.RelativeHumidityPct}
+	if in.SurroundingsTempC == nil {
+		l.assume("surroundings at the ambient temperature %s °C", fmtNum(amb))
+	}
+	if in.WindMS == nil {
+		l.assume("still air (wind 0 m/s) at design conditions")
+	}
+	var cs Conditions
+	if in.Conditions != nil {
+		cs = *in.Conditions
+	}
+	l.personnel = conditionSet(l, c, "personnel", cs.Personnel, true)
+	l.condensation = conditionSet(l, c, "condensation", cs.Condensation, true)
+	l.freeze = conditionSet(l, c, "freeze", cs.Freeze, false)
+	l.econ = conditionSet(l, c, "economics", cs.Economics, false)
+	for name, set := range map[string]*ConditionSet{"personnel": cs.Personnel, "condensation": cs.Condensation, "economics": cs.Economics} {
+		if set != nil && set.InitialTempC != nil {
+			c.add("conditions."+name+".initial_temp_c", "applies only to the freeze conditions")
+		}
+	}
+	if cs.Freeze != nil {
+		rangeCheck(c, "conditions.freeze.initial_temp_c", cs.Freeze.InitialTempC, -50, 200, "°C")
+	}
+}
+
+// conditionSet resolves one per-criterion set: absent values take the design
+// conditions, except that personnel protection and condensation default to still air.
+func conditionSet(l *line, c *errs, name string, set *ConditionSet, stillAir bool) airSet {
+	p := "conditions." + name + "."
+	out := l.design
+	if stillAir {
+		out.air.WindMS = 0
+	}
+	if set == nil {
+		if stillAir {
+			l.assume("%s judged at the design conditions in still air (common practice)", name)
+		} else {
+			l.assume("%s judged at the design conditions", name)
+		}
+		return out
+	}
+	rangeCheck(c, p+"ambient_temp_c", set.AmbientTempC, -70, 80, "°C")
+	rangeCheck(c, p+"surroundings_temp_c", set.SurroundingsTempC, -100, 300, "°C")
+	rangeCheck(c, p+"wind_m_s", set.WindMS, 0, 40, "m/s")
+	rangeCheck(c, p+"relative_humidity_pct", set.RelativeHumidityPct, 0.1, 100, "%")
+	if set.AmbientTempC != nil {
+		out.air.TempC = *set.AmbientTempC
+		out.air.SurroundingsC = *set.AmbientTempC
+	}
+	if set.SurroundingsTempC != nil {
+		out.air.SurroundingsC = *set.SurroundingsTempC
+	}
+	if set.WindMS != nil {
+		out.air.WindMS = *set.WindMS
+	}
+	if set.RelativeHumidityPct != nil {
+		out.rh = set.RelativeHumidityPct
+	}
+	out.initial = set.InitialTempC
+	return out
+}
+
+func resolveLayers(l *line, r Resolver, c *errs) {
+	in := l.in
+	if len(in.Layers) > maxLayers {
+		c.add("layers", "must have at most %d layers", maxLayers)
+		return
+	}
+	for i, li := range in.Layers {
+		p := fmt.Sprintf("layers[%d].", i)
+		if li.ThicknessMM == nil {
+			c.add(p+"thickness_mm", "is required")
+		} else {
+			positiveCheck(c, p+"thickness_mm", li.ThicknessMM, maxThicknessMM, "mm")
+		}
+		given := 0
+		for _, g := range []bool{li.Material != "", li.KWmK != nil, li.KPoints != nil} {
+			if g {
+				given++
+			}
+		}
+		if given != 1 {
+			c.add(p+"material", "give exactly one of material, k_w_mk or k_points")
+			continue
+		}
+		layer := calc.Layer{}
+		factor := 1.0
+		switch {
+		case li.Material != "":
+			m, ok := r.Material(li.Material)
+			if !ok {
+				c.add(p+"material", "unknown material %q", li.Material)
+				continue
+			}
+			layer.Name = fmt.Sprintf("layer %d (%s)", i+1, m.Name)
+			layer.K = kCurve(m.KPoints)
+			if m.Compressible && m.CompressionPct > 0 {
+				factor = 1 - m.CompressionPct/100
+				l.assume("layer %d (%s) counted at its installed thickness: %s %% compression of the nominal (common practice)",
+					i+1, m.Name, fmtNum(m.CompressionPct))
+			}
+			layer.MinC, layer.MaxC, layer.HasLimits = m.MinC, m.MaxC, true
+			if i == len(in.Layers)-1 {
+				l.outerMaterial = &m
+			}
+		case li.KWmK != nil:
+			if *li.KWmK <= 0 || *li.KWmK > 10 {
+				c.add(p+"k_w_mk", "must be greater than 0 and at most 10 W/m·K")
+				continue
+			}
+			layer.Name = fmt.Sprintf("layer %d", i+1)
+			layer.K = calc.KCurve{{MeanC: 20, K: *li.KWmK}}
+			l.assume("layer %d: constant k %s W/m·K at every temperature", i+1, fmtNum(*li.KWmK))
+		default:
+			if !validKPoints(c, p+"k_points", li.KPoints) {
+				continue
+			}
+			layer.Name = fmt.Sprintf("layer %d", i+1)
+			for _, pt := range li.KPoints {
+				layer.K = append(layer.K, calc.KPoint{MeanC: pt[0], K: pt[1]})
+			}
+		}
+		layer.Thickness = orDefault(li.ThicknessMM, 0) / 1000 * factor
+		l.base.Layers = append(l.base.Layers, layer)
+		l.layerMaterials = append(l.layerMaterials, li.Material)
+		l.installed = append(l.installed, factor)
+	}
+}
+
+// validKPoints checks a k-versus-mean-temperature list.
+func validKPoints(c *errs, field string, pts [][2]float64) bool {
+	if len(pts) < 1 || len(pts) > maxKPoints {
+		c.add(field, "must have 1 to %d points [mean_temp_c, k_w_mk]", maxKPoints)
+		return false
+	}
+	for j, pt := range pts {
+		if pt[0] < -273 || pt[0] > 1200 {
+			c.add(fmt.Sprintf("%s[%d][0]", field, j), "mean temperature must be between -273 and 1200 °C")
+			return false
+		}
+		if pt[1] <= 0 || pt[1] > 10 {
+			c.add(fmt.Sprintf("%s[%d][1]", field, j), "k must be greater than 0 and at most 10 W/m·K")
+			return false
+		}
+		if j > 0 && pt[0] <= pts[j-1][0] {
+			c.add(fmt.Sprintf("%s[%d][0]", field, j), "mean temperatures must be strictly increasing")
+			return false
+		}
+	}
+	return true
+}
+
+func kCurve(pts []catalog.KPoint) calc.KCurve {
+	out := make(calc.KCurve, len(pts))
+	for i, p := range pts {
+		out[i] = calc.KPoint{MeanC: p.MeanC, K: p.K}
+	}
+	return out
+}
+
+func resolveSurface(l *line, r Resolver, c *errs) {
+	in := l.in
+	rangeCheck(c, "surface_emittance", in.SurfaceEmittance, 0, 1, "")
+	rangeCheck(c, "bare_emittance", in.BareEmittance, 0, 1, "")
+	rangeCheck(c, "surface_coeff_w_m2k", in.SurfaceCoeff, 1, 500, "W/m²·K")
+	if in.Jacket != "" {
+		j, ok := r.Jacket(in.Jacket)
+		if !ok {
+			c.add("jacket", "unknown jacket %q", in.Jacket)
+		} else {
+			l.jacket = &j
+		}
+	}
+	switch {
+	case in.SurfaceEmittance != nil:
+		l.base.Emittance = *in.SurfaceEmittance
+		if l.jacket != nil {
+			l.assume("surface emittance %s given; it overrides the jacket's %s", fmtNum(*in.SurfaceEmittance), fmtNum(l.jacket.Emittance))
+		}
+	case l.jacket != nil:
+		l.base.Emittance = l.jacket.Emittance
+	case len(in.Layers) > 0 && in.SurfaceCoeff == nil:
+		c.add("jacket", "give a jacket or surface_emittance for the insulated surface")
+	}
+	if in.SurfaceCoeff != nil {
+		l.base.FixedCoeff = *in.SurfaceCoeff
+		l.assume("fixed surface coefficient %s W/m²·K on the insulated surface (replaces convection and radiation)", fmtNum(*in.SurfaceCoeff))
+	}
+
+	// The bare comparison: same pipe, no insulation, correlations, bare emittance.
+	l.bare = l.base
+	l.bare.Layers = nil
+	l.bare.FixedCoeff = 0
+	switch {
+	case in.BareEmittance != nil:
+		l.bare.Emittance = *in.BareEmittance
+	case in.Geometry == "pipe" && l.pipeMat.Slug != "":
+		l.bare.Emittance = l.pipeMat.BareEmittance
+		l.assume("bare emittance %s (%s)", fmtNum(l.pipeMat.BareEmittance), strings.ToLower(l.pipeMat.Name))
+	default:
+		l.bare.Emittance = 0.9
+		l.assume("bare emittance 0.9 (painted or oxidised sheet metal, common practice)")
+	}
+	if len(in.Layers) == 0 {
+		l.base.Emittance = l.bare.Emittance
+		if in.SurfaceEmittance != nil {
+			l.base.Emittance = *in.SurfaceEmittance
+			l.bare.Emittance = *in.SurfaceEmittance
+		}
+	}
+}
+
+func resolveRun(l *line, c *errs) {
+	in := l.in
+	positiveCheck(c, "length_m", in.LengthM, 100000, "m")
+	rangeCheck(c, "fittings_equiv_length_m", in.FittingsEquivLengthM, 0, 100000, "m")
+	positiveCheck(c, "area_m2", in.AreaM2, 1e6, "m²")
+	if !l.shape.IsFlat() && in.AreaM2 != nil {
+		c.add("area_m2", "applies to flat surfaces; for pipes and ducts give length_m")
+	}
+	if l.shape.IsFlat() {
+		l.areaM2 = orDefault(in.AreaM2, 0)
+		if in.LengthM != nil {
+			c.add("length_m", "applies to pipes and ducts; for a flat surface give area_m2")
+		}
+		if in.FittingsEquivLengthM != nil {
+			c.add("fittings_equiv_length_m", "applies to pipes and ducts")
+		}
+		if in.Flow != nil {
+			c.add("flow", "applies to pipes and ducts")
+		}
+		return
+	}
+	if in.LengthM != nil {
+		l.lengthM = *in.LengthM
+		l.equivLengthM = l.lengthM + orDefault(in.FittingsEquivLengthM, 0)
+	} else if in.FittingsEquivLengthM != nil {
+		c.add("fittings_equiv_length_m", "needs length_m")
+	}
+	if in.Flow != nil {
+		if in.Flow.MassFlowKgS == nil {
+			c.add("flow.mass_flow_kg_s", "is required with flow")
+		} else {
+			positiveCheck(c, "flow.mass_flow_kg_s", in.Flow.MassFlowKgS, 10000, "kg/s")
+		}
+		rangeCheck(c, "flow.cp_j_kgk", in.Flow.CpJkgK, 100, 20000, "J/kg·K")
+		if in.Flow.CpJkgK != nil {
+			l.cpJkgK = *in.Flow.CpJkgK
+		} else if cp, ok := defaultCp[l.fluid]; ok {
+			l.cpJkgK = cp
+			l.assume("specific heat of %s %s J/kg·K", l.fluid, fmtNum(cp))
+		} else if l.fluid != "steam" {
+			c.add("flow.cp_j_kgk", "is required for fluid %q", l.fluid)
+		}
+		if l.fluid == "steam" && l.steamAbsPa > 0 {
+			l.assume("saturated steam does not cool along the run: it condenses (flow is not used)")
+		}
+		if in.LengthM == nil {
+			c.add("length_m", "is required with flow (the run's temperature change)")
+		}
+	}
+}
+
+func resolveCriteria(l *line, c *errs) {
+	cr := Criteria{}
+	if l.in.Criteria != nil {
+		cr = *l.in.Criteria
+	}
+	k := &l.crit
+	rangeCheck(c, "criteria.max_surface_temp_c", cr.MaxSurfaceTempC, 20, 200, "°C")
+	rangeCheck(c, "criteria.dew_margin_k", cr.DewMarginK, 0, 20, "K")
+	positiveCheck(c, "criteria.max_heat_flow_w_per_m", cr.MaxHeatFlowWPerM, 1e6, "W/m")
+	positiveCheck(c, "criteria.max_temp_change_k", cr.MaxTempChangeK, 500, "K")
+	positiveCheck(c, "criteria.freeze_hours", cr.FreezeHours, 8760, "h")
+	rangeCheck(c, "criteria.maintain_temp_c", cr.MaintainTempC, 0.5, 100, "°C")
+	rangeCheck(c, "criteria.heat_trace_factor", cr.HeatTraceFactor, 1, 3, "")
+	if cr.FreezeFraction != nil && (*cr.FreezeFraction <= 0 || *cr.FreezeFraction > 1) {
+		c.add("criteria.freeze_fraction", "must be greater than 0 and at most 1")
+	}
+	k.maxSurfaceC = orDefault(cr.MaxSurfaceTempC, 60)
+	k.personnel = (cr.PersonnelProtection == nil || *cr.PersonnelProtection) && l.opC > k.maxSurfaceC
+	if k.personnel && cr.MaxSurfaceTempC == nil {
+		l.assume("personnel protection: surface at most 60 °C (common practice for metal jacketing, on the contact-burn basis of ASTM C1055)")
+	}
+	k.dewMarginK = orDefault(cr.DewMarginK, 1)
+	k.condensation = (cr.Condensation == nil || *cr.Condensation) && l.opC < l.condensation.air.TempC
+	if k.condensation && l.condensation.rh == nil {
+		k.condensation = false
+		l.warn("below-ambient line with no relative humidity given: condensation was not checked")
+	}
+	k.maxHeatFlow = cr.MaxHeatFlowWPerM
+	k.maxTempChange = cr.MaxTempChangeK
+	if k.maxTempChange != nil && (l.in.Flow == nil || l.in.LengthM == nil) {
+		c.add("criteria.max_temp_change_k", "needs flow and length_m")
+	}
+	if k.maxTempChange != nil && l.fluid == "steam" {
+		c.add("criteria.max_temp_change_k", "saturated steam condenses instead of cooling; use max_heat_flow_w_per_m")
+	}
+	k.freezeHours = cr.FreezeHours
+	k.freezeBasis = cr.FreezeBasis
+	if k.freezeBasis == "" {
+		k.freezeBasis = "onset"
+	} else if k.freezeBasis != "onset" && k.freezeBasis != "fraction" {
+		c.add("criteria.freeze_basis", `must be "onset" or "fraction"`)
+	}
+	k.freezeFraction = orDefault(cr.FreezeFraction, 0.25)
+	k.maintainC = orDefault(cr.MaintainTempC, 5)
+	k.heatTraceFactor = orDefault(cr.HeatTraceFactor, 1.2)
+	if k.freezeHours != nil && l.fluid != "water" {
+		c.add("criteria.freeze_hours", `applies to fluid "water"`)
+	}
+	if k.freezeHours != nil && !l.shape.IsPipe() {
+		c.add("criteria.freeze_hours", "applies to water in pipes")
+	}
+	if cr.EnergyCode != "" {
+		t, ok := catalog.CodeTableByID(cr.EnergyCode)
+		switch {
+		case !ok:
+			c.add("criteria.energy_code", "unknown energy-code table %q", cr.EnergyCode)
+		case !l.shape.IsPipe():
+			c.add("criteria.energy_code", "the energy-code pipe tables apply to pipes only")
+		default:
+			k.energyCode = &t
+		}
+	}
+	k.economic = cr.Economic != nil && *cr.Economic
+
+	if len(l.in.ThicknessesMM) > maxCandidates {
+		c.add("thicknesses_mm", "must have at most %d thicknesses", maxCandidates)
+	}
+	for i, t := range l.in.ThicknessesMM {
+		if t <= 0 || t > maxThicknessMM {
+			c.add(fmt.Sprintf("thicknesses_mm[%d]", i), "must be greater than 0 and at most %d mm", maxThicknessMM)
+		}
+	}
+}
+
+func resolveEconomics(l *line, c *errs) {
+	e := l.in.Economics
+	if e == nil {
+		return
+	}
+	if e.EnergyPricePerKWh == nil {
+		c.add("economics.energy_price_per_kwh", "is required for economics")
+	}
+	rangeCheck(c, "economics.energy_price_per_kwh", e.EnergyPricePerKWh, 0, 100, "per kWh")
+	if e.Efficiency != nil && (*e.Efficiency <= 0 || *e.Efficiency > 1) {
+		c.add("economics.efficiency", "must be greater than 0 and at most 1")
+	}
+	rangeCheck(c, "economics.cop", e.COP, 1.01, 20, "")
+	if e.Efficiency != nil && e.COP != nil {
+		c.add("economics.cop", "give efficiency (heating) or cop (cooling), not both")
+	}
+	rangeCheck(c, "economics.hours_per_year", e.HoursPerYear, 1, 8784, "h")
+	rangeCheck(c, "economics.discount_rate", e.DiscountRate, -0.5, 1, "")
+	rangeCheck(c, "economics.escalation_rate", e.EscalationRate, -0.5, 1, "")
+	if e.LifeYears != nil && (*e.LifeYears < 1 || *e.LifeYears > 100) {
+		c.add("economics.life_years", "must be between 1 and 100 years")
+	}
+	rangeCheck(c, "economics.co2_kg_per_kwh", e.CO2KgPerKWh, 0, 5, "kg/kWh")
+	if len(e.InstalledCostPerM) > maxCandidates {
+		c.add("economics.installed_cost_per_m", "must have at most %d entries", maxCandidates)
+	}
+	for i, cp := range e.InstalledCostPerM {
+		p := fmt.Sprintf("economics.installed_cost_per_m[%d].", i)
+		if cp.ThicknessMM <= 0 || cp.ThicknessMM > maxThicknessMM {
+			c.add(p+"thickness_mm", "must be greater than 0 and at most %d mm", maxThicknessMM)
+		}
+		if cp.Cost < 0 || cp.Cost > 1e7 {
+			c.add(p+"cost", "must be between 0 and 10000000")
+		}
+	}
+}

@@ -1,0 +1,110 @@
+package calc
+
+import (
+	"errors"
+	"math"
+)
+
+// Steady one-dimensional conduction in series (ASTM C680; ISO 12241): per metre of a
+// cylinder q' = 2π k_m (T1 − T2)/ln(r2/r1), per m² of a plane q'' = k_m (T1 − T2)/t, with
+// each insulation layer's k taken at its own mean temperature (the ISO 12241 rule; for k
+// linear in T it equals ∫k dT/ΔT of ASTM C680).
+
+// pathLayer is one insulation layer of a heat path: q = s·k(mean)·(Ti − To).
+type pathLayer struct {
+	s     float64 // shape factor per unit k: 2π/ln(r2/r1), 1/t, or mean width/t
+	curve KCurve
+}
+
+// path is one heat path from the fluid to the air: an optional inside film and pipe wall
+// (fixed conductances), the insulation layers, and the outer surface.
+type path struct {
+	fixedG []float64   // conductances W/K per path unit, inner to outer (film, wall)
+	layers []pathLayer // inner to outer
+	area   float64     // outer surface per path unit (m²/m, or 1 per m²)
+	surf   surface
+	states []LayerState // scratch: layer states of the last march
+}
+
+// march sets the layer states for surface temperature ts and heat flow q (per path unit),
+// working from the surface inward, and returns the fluid-side temperature, the
+// temperature under the insulation, and d(fluid-side temperature)/d(ts) given dq = dq/dts.
+func (p *path) march(ts, q, dq float64) (tin, under, dtin float64, err error) {
+	t, dt := ts, 1.0
+	for i := len(p.layers) - 1; i >= 0; i-- {
+		l := &p.layers[i]
+		ti, k, dk, beyond, err := layerInner(l, t, q)
+		if err != nil {
+			return 0, 0, 0, err
+		}
+		d := ti - t
+		gi := l.s * (k + dk*d/2)   // ∂q/∂Ti
+		go_ := l.s * (-k + dk*d/2) // ∂q/∂To
+		if gi > 0 {
+			dt = (dq - go_*dt) / gi
+		}
+		p.states[i] = LayerState{InnerC: ti, OuterC: t, MeanC: (ti + t) / 2, K: k, Beyond: beyond}
+		t = ti
+	}
+	under = t
+	for i := len(p.fixedG) - 1; i >= 0; i-- {
+		t += q / p.fixedG[i]
+		dt += dq / p.fixedG[i]
+	}
+	if !finite(t) || !finite(dt) {
+		return 0, 0, 0, errors.New("calc: conduction march produced a non-finite temperature")
+	}
+	return t, under, dt, nil
+}
+
+// layerInner solves s·k((Ti+To)/2)·(Ti − To) = q for the inner face temperature Ti by a
+// Newton iteration safeguarded by bisection on [To, To + q/(s·k_min)].
+func layerInner(l *pathLayer, to, q float64) (ti, k, dk float64, beyond bool, err error) {
+	if q == 0 {
+		k, dk, beyond = l.curve.eval(to)
+		return to, k, dk, beyond, nil
+	}
+	lo, hi := to, to+q/(l.s*l.curve.minK())
+	if lo > hi {
+		lo, hi = hi, lo
+	}
+	// f(x) = s·k·(x − to) − q rises through zero inside [lo, hi].
+	k0, _, _ := l.curve.eval(to)
+	x := to + q/(l.s*k0)
+	for range 100 {
+		if x <= lo || x >= hi || !finite(x) {
+			x = (lo + hi) / 2
+		}
+		m := (x + to) / 2
+		k, dk, beyond = l.curve.eval(m)
+		d := x - to
+		f := l.s*k*d - q
+		if f < 0 { // f increases with x: the root lies above x
+			lo = x
+		} else {
+			hi = x
+		}
+		fp := l.s * (k + dk*d/2)
+		step := 0.0
+		if fp > 0 {
+			step = f / fp
+		}
+		if math.Abs(f) <= 1e-13*math.Abs(q) || (fp > 0 && math.Abs(step) <= 1e-12*(1+math.Abs(x))) {
+			return x, k, dk, beyond, nil
+		}
+		if fp > 0 {
+			x -= step
+		} else {
+			x = math.NaN() // force bisection
+		}
+		if hi-lo <= 1e-12*(1+math.Abs(x)) {
+			break
+		}
+	}
+	x = (lo + hi) / 2
+	k, dk, beyond = l.curve.eval((x + to) / 2)
+	if !finite(x) {
+		return 0, 0, 0, false, errors.New("calc: layer temperature solve did not converge")
+	}
+	return x, k, dk, beyond, nil
+}

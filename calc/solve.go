@@ -1,0 +1,215 @@
+package calc
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+const (
+	solveTolK    = 1e-7 // K: |fluid-side temperature − fluid temperature| at convergence
+	solveMaxEval = 100  // residual evaluations per path
+	fdStepK      = 1e-3 // K: finite-difference step for d(surface flux)/dTs
+)
+
+// Solve computes the steady heat balance of sys carrying a fluid at fluidC (°C) in the
+// environment air. The surface temperature is found by a bracketed Newton iteration
+// safeguarded by bisection: the residual marches from the surface inward with the surface
+// heat flow (each layer's k at its own mean temperature) and compares the fluid-side
+// temperature with fluidC. Ducts solve each face as a parallel path (see solveDuct).
+func Solve(sys System, fluidC float64, air Air) (Result, error) {
+	if err := sys.Validate(); err != nil {
+		return Result{}, err
+	}
+	if err := validateConditions(fluidC, air); err != nil {
+		return Result{}, err
+	}
+	if sys.Shape == Duct {
+		return solveDuct(sys, fluidC, air)
+	}
+	p := buildPath(sys)
+	pr, err := p.solve(fluidC, air)
+	if err != nil {
+		return Result{}, err
+	}
+	res := Result{
+		HeatFlowPerM:  pr.q,
+		HeatFlux:      pr.q / p.area,
+		SurfaceC:      pr.ts,
+		PipeSurfaceC:  pr.under,
+		Layers:        pr.layers,
+		HConv:         pr.sf.hConv,
+		HRad:          pr.sf.hRad,
+		OuterAreaPerM: p.area,
+		Evaluations:   pr.evals,
+	}
+	res.Warnings = p.warnings(sys, pr, air, "")
+	if sys.Shape.IsPipe() {
+		res.OuterDiameter = p.surf.d
+		if w := criticalRadius(p.surf.d/2, pr); w != "" {
+			res.Warnings = append(res.Warnings, w)
+		}
+	}
+	return res, nil
+}
+
+// buildPath lays out a pipe or flat system as one heat path.
+func buildPath(sys System) *path {
+	p := &path{states: make([]LayerState, len(sys.Layers))}
+	p.surf = surface{emit: sys.Emittance, fixed: sys.FixedCoeff}
+	if sys.Shape.IsPipe() {
+		r := sys.PipeOD / 2
+		ri := r - sys.PipeWall // inner wetted radius (the OD when the wall is not modelled)
+		if sys.InnerCoeff > 0 {
+			p.fixedG = append(p.fixedG, sys.InnerCoeff*2*math.Pi*ri)
+		}
+		if sys.PipeWall > 0 {
+			p.fixedG = append(p.fixedG, 2*math.Pi*sys.WallK/math.Log(r/ri))
+		}
+		for _, l := range sys.Layers {
+			r2 := r + l.Thickness
+			p.layers = append(p.layers, pathLayer{s: 2 * math.Pi / math.Log(r2/r), curve: l.K})
+			r = r2
+		}
+		p.area = 2 * math.Pi * r
+		p.surf.d, p.surf.lWind, p.surf.kind = 2*r, 2*r, surfCylH
+		if sys.Shape == PipeVertical {
+			p.surf.kind, p.surf.l = surfCylV, sys.Height
+		}
+		return p
+	}
+	// Flat surfaces, per m²; the pipe wall does not apply.
+	if sys.InnerCoeff > 0 {
+		p.fixedG = append(p.fixedG, sys.InnerCoeff)
+	}
+	for _, l := range sys.Layers {
+		p.layers = append(p.layers, pathLayer{s: 1 / l.Thickness, curve: l.K})
+	}
+	p.area = 1
+	switch sys.Shape {
+	case FlatVertical:
+		p.surf.kind, p.surf.l, p.surf.lWind = surfPlateV, sys.Height, sys.Width
+	case FlatUp, FlatDown:
+		p.surf.kind = surfPlateUp
+		if sys.Shape == FlatDown {
+			p.surf.kind = surfPlateDown
+		}
+		p.surf.l = sys.PlateLength * sys.PlateWidth / (2 * (sys.PlateLength + sys.PlateWidth))
+		p.surf.lWind = sys.PlateLength
+	}
+	return p
+}
+
+// pathResult is the solved state of one heat path.
+type pathResult struct {
+	ts, under float64 // surface and under-insulation temperatures, °C
+	q         float64 // heat flow per path unit (W/m or W/m²), positive to the air
+	sf        surfState
+	layers    []LayerState
+	evals     int
+}
+
+// solve finds the surface temperature of the path.
+func (p *path) solve(fluid float64, air Air) (res pathResult, err error) {
+	eval := func(ts float64) (r, dr float64, err error) {
+		res.evals++
+		sf := p.surf.exchange(ts, air)
+		dq := p.surf.fixed
+		if dq == 0 {
+			dq = (p.surf.exchange(ts+fdStepK, air).flux - sf.flux) / fdStepK
+		}
+		q := sf.flux * p.area
+		tin, under, dtin, err := p.march(ts, q, dq*p.area)
+		if err != nil {
+			return 0, 0, err
+		}
+		res.ts, res.under, res.q, res.sf = ts, under, q, sf
+		return tin - fluid, dtin, nil
+	}
+	// Layer states of the last evaluation, which is the reported one.
+	defer func() { res.layers = append([]LayerState(nil), p.states...) }()
+
+	if len(p.layers) == 0 && len(p.fixedG) == 0 { // bare surface at the fluid temperature
+		sf := p.surf.exchange(fluid, air)
+		res.ts, res.under, res.q, res.sf = fluid, fluid, sf.flux*p.area, sf
+		if !finite(res.q) {
+			return res, errors.New("calc: surface heat flow is not finite")
+		}
+		return res, nil
+	}
+	// The surface lies between the fluid and the environment temperatures: at lo the
+	// surface gains heat (residual ≤ 0), at hi it loses heat (residual ≥ 0).
+	lo := math.Min(fluid, math.Min(air.TempC, air.SurroundingsC))
+	hi := math.Max(fluid, math.Max(air.TempC, air.SurroundingsC))
+	x := p.guess(fluid, air, lo, hi)
+	for res.evals < solveMaxEval {
+		r, dr, err := eval(x)
+		if err != nil {
+			return res, err
+		}
+		if math.Abs(r) <= solveTolK {
+			return res, nil
+		}
+		if r < 0 {
+			lo = x
+		} else {
+			hi = x
+		}
+		if hi-lo <= 1e-9*(1+math.Abs(x)) {
+			// The residual jumps across the root (a correlation switches range there):
+			// the last evaluation is the answer to within the bracket.
+			return res, nil
+		}
+		next := x - r/dr
+		if !(dr > 0) || !(next > lo && next < hi) {
+			next = (lo + hi) / 2
+		}
+		x = next
+	}
+	return res, fmt.Errorf("calc: surface temperature did not converge in %d evaluations", solveMaxEval)
+}
+
+// guess estimates the surface temperature without residual evaluations: a few passes of
+// the linearised series-resistance balance, with the surface coefficient from the
+// correlations and each layer's k at its mean from the previous pass.
+func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
+	ts := air.TempC + 0.1*(fluid-air.TempC)
+	for i := range p.states {
+		p.states[i].MeanC = (fluid + ts) / 2
+	}
+	for range 3 {
+		h, env := p.surf.fixed, air.TempC
+		if h == 0 {
+			hc, _ := p.surf.hConv(ts, air)
+			hc = math.Max(hc, 0.5)
+			t1, t2 := ts+kelvin, air.SurroundingsC+kelvin
+			hr := p.surf.emit * StefanBoltzmann * (t1*t1 + t2*t2) * (t1 + t2)
+			h, env = hc+hr, (hc*air.TempC+hr*air.SurroundingsC)/(hc+hr)
+		}
+		rs := 1 / (h * p.area)
+		rin := 0.0
+		for _, g := range p.fixedG {
+			rin += 1 / g
+		}
+		for i, l := range p.layers {
+			k, _ := l.curve.At(p.states[i].MeanC)
+			rin += 1 / (l.s * k)
+		}
+		q := (fluid - env) / (rin + rs)
+		ts = env + q*rs
+		t := fluid
+		for _, g := range p.fixedG {
+			t -= q / g
+		}
+		for i, l := range p.layers {
+			k, _ := l.curve.At(p.states[i].MeanC)
+			t2 := t - q/(l.s*k)
+			p.states[i].MeanC = (t + t2) / 2
+			t = t2
+		}
+	}
+	if !(ts > lo && ts < hi) {
+		return (lo + hi) / 2
+	}
+	return ts
+}

@@ -1,0 +1,5 @@
+DROP TABLE IF EXISTS line_materials;
+DROP TABLE IF EXISTS lines;
+DROP TABLE IF EXISTS jackets;
+DROP TABLE IF EXISTS materials;
+DROP TABLE IF EXISTS projects;
