@@ -232,6 +232,7 @@ func resolveGeometry(l *line, c *errs) {
 	default:
 		c.add("geometry", `must be "pipe", "duct" or "flat"`)
 	}
+	sys.Shape = l.shape
 	if l.shape != calc.FlatVertical && in.Geometry == "flat" && in.WidthM != nil {
 		c.add("width_m", "applies only to vertical flat surfaces")
 	}
@@ -485,7 +486,7 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 				c.add(p+"material", "unknown material %q", li.Material)
 				continue
 			}
-			layer.Name = fmt.Sprintf("layer %d (%s)", i+1, m.Name)
+			layer.Name = m.Name
 			layer.K = kCurve(m.KPoints)
 			if m.Compressible && m.CompressionPct > 0 {
 				factor = 1 - m.CompressionPct/100
@@ -501,14 +502,12 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 				c.add(p+"k_w_mk", "must be greater than 0 and at most 10 W/m·K")
 				continue
 			}
-			layer.Name = fmt.Sprintf("layer %d", i+1)
 			layer.K = calc.KCurve{{MeanC: 20, K: *li.KWmK}}
 			l.assume("layer %d: constant k %s W/m·K at every temperature", i+1, fmtNum(*li.KWmK))
 		default:
 			if !validKPoints(c, p+"k_points", li.KPoints) {
 				continue
 			}
-			layer.Name = fmt.Sprintf("layer %d", i+1)
 			for _, pt := range li.KPoints {
 				layer.K = append(layer.K, calc.KPoint{MeanC: pt[0], K: pt[1]})
 			}

@@ -47,7 +47,7 @@ func (c KCurve) eval(m float64) (k, dk float64, beyond bool) {
 	k = a.K + dk*(m-a.MeanC)
 	if beyond {
 		end := c[0].K
-		if i > 0 {
+		if m > c[n-1].MeanC {
 			end = c[n-1].K
 		}
 		if floor := kFloorFraction * end; k < floor {

@@ -75,7 +75,7 @@ var accepted = map[Quantity]map[string]unitDef{
 var unitReplacer = strings.NewReplacer(
 	"°", "", "º", "", "˚", "", "²", "2", "³", "3", "″", `"`, "”", `"`, "“", `"`, "′", "'", "’", "'",
 	" ", "", "\t", "", "·", "", "⋅", "", "•", "", "*", "", "(", "", ")", "", "-", "", ".", "",
-	"hrs", "h", "hr", "h", "deg", "", "sq", "sq",
+	"hrs", "h", "hr", "h", "deg", "",
 )
 
 func normUnit(s string) string { return unitReplacer.Replace(strings.ToLower(strings.TrimSpace(s))) }

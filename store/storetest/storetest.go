@@ -16,6 +16,7 @@ package storetest
 
 import (
 	"context"
+	"flag"
 	"fmt"
 	"log/slog"
 	"net/url"
@@ -54,6 +55,9 @@ func Main(m *testing.M) {
 }
 
 func run(m *testing.M) int {
+	if !flag.Parsed() {
+		flag.Parse() // for testing.Verbose
+	}
 	ctx := context.Background()
 	cleanup, err := setUp(ctx)
 	if err != nil {

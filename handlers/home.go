@@ -1,0 +1,15 @@
+package handlers
+
+import (
+	"net/http"
+
+	"github.com/a-h/templ"
+
+	"lagwright/web"
+)
+
+func (s *Server) home(w http.ResponseWriter, r *http.Request) {
+	v := web.HomeView{Assets: s.assets.urls, Version: s.cfg.Version, DBReady: s.dbReady(r.Context()) == nil}
+	w.Header().Set("Cache-Control", "no-store")
+	templ.Handler(web.Home(v)).ServeHTTP(w, r)
+}

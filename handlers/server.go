@@ -1,0 +1,86 @@
+// Package handlers holds the HTTP side of Lagwright: chi routes for pages, htmx
+// fragments, the JSON API and exports. Handlers parse and validate input, call
+// store, schedule and calc, and render web components. No SQL, no physics.
+package handlers
+
+import (
+	"fmt"
+	"log/slog"
+	"net/http"
+
+	"github.com/go-chi/chi/v5"
+
+	"lagwright/store"
+)
+
+// Config holds the settings of the HTTP side.
+type Config struct {
+	// Version is shown on the home page.
+	Version string
+	// MaxBodyBytes limits request bodies; 0 means DefaultMaxBodyBytes.
+	MaxBodyBytes int64
+	// TrustedOrigins are origins (scheme://host[:port]) allowed to make unsafe
+	// cross-origin requests, e.g. the public origin behind a reverse proxy that
+	// rewrites Host.
+	TrustedOrigins []string
+}
+
+// DefaultMaxBodyBytes is the request body limit unless Config says otherwise.
+const DefaultMaxBodyBytes = 10 << 20
+
+// Server holds what every handler needs. Build it with New.
+type Server struct {
+	store  *store.Store
+	log    *slog.Logger
+	cfg    Config
+	assets *assets
+}
+
+// New builds a Server.
+func New(st *store.Store, log *slog.Logger, cfg Config) (*Server, error) {
+	if cfg.MaxBodyBytes <= 0 {
+		cfg.MaxBodyBytes = DefaultMaxBodyBytes
+	}
+	a, err := loadAssets()
+	if err != nil {
+		return nil, fmt.Errorf("handlers: %w", err)
+	}
+	return &Server{store: st, log: log, cfg: cfg, assets: a}, nil
+}
+
+// Routes returns the application's handler with every route and safety layer:
+// request logging, panic recovery, security headers, cross-origin protection for
+// unsafe methods (403), and the request body limit.
+func (s *Server) Routes() (http.Handler, error) {
+	r := chi.NewRouter()
+	r.Use(s.limitBody)
+	r.NotFound(func(w http.ResponseWriter, r *http.Request) { s.fail(w, r, NotFound("page")) })
+	r.MethodNotAllowed(func(w http.ResponseWriter, r *http.Request) {
+		s.fail(w, r, &Error{Code: CodeMethodNotAllowed, Message: "This address does not accept " + r.Method + " requests."})
+	})
+
+	r.Get("/healthz", s.healthz)
+	r.Get("/readyz", s.readyz)
+	r.Get("/static/*", s.static)
+	r.Get("/", s.home)
+	s.mountPages(r)
+	r.Route("/api/v1", s.mountAPI)
+
+	cop := http.NewCrossOriginProtection()
+	for _, o := range s.cfg.TrustedOrigins {
+		if err := cop.AddTrustedOrigin(o); err != nil {
+			return nil, fmt.Errorf("handlers: trusted origin: %w", err)
+		}
+	}
+	cop.SetDenyHandler(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		s.fail(w, r, &Error{Code: CodeForbidden, Message: "Cross-origin request refused."})
+	}))
+	return s.logRequests(s.recoverPanics(securityHeaders(cop.Handler(r)))), nil
+}
+
+// mountPages is where the screens go: r.Route("/projects", …), r.Route("/materials", …).
+func (s *Server) mountPages(r chi.Router) {}
+
+// mountAPI is where the JSON API goes, under /api/v1: r.Post("/calc", s.apiCalc), …
+// Errors from API routes are answered as JSON by s.fail.
+func (s *Server) mountAPI(r chi.Router) {}

@@ -1,0 +1,1 @@
+ALTER TABLE lines DROP COLUMN exposure, DROP COLUMN fittings;
