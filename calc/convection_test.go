@@ -58,7 +58,7 @@ func TestSlenderCylinderCondition(t *testing.T) {
 func TestRadiation(t *testing.T) {
 	for _, c := range []struct {
 		eps, ts, tsur, want float64
-		source             string
+		source              string
 	}{
 		{1, 400 - 273.15, -273.15, 1451.614, "METHODS.md [read]"},
 		{0.85, 400 - 273.15, 305 - 273.15, 816.782, "METHODS.md [read]"},

@@ -1,6 +1,9 @@
 package calc
 
-import "math"
+import (
+	"math"
+	"slices"
+)
 
 // solveDuct solves a rectangular duct by the ISO 12241 approach: the four faces are
 // parallel heat paths, each conducting through every layer with its mean width (inner
@@ -47,7 +50,7 @@ func solveDuct(sys System, fluidC float64, air Air) (Result, error) {
 		res.Warnings = append(res.Warnings, p.warnings(sys, pr, air, f.name+" face: ")...)
 		if d := math.Abs(pr.ts - air.TempC); d > worst {
 			worst = d
-			res.SurfaceC, res.PipeSurfaceC, res.Layers = pr.ts, pr.under, pr.layers
+			res.SurfaceC, res.PipeSurfaceC, res.Layers = pr.ts, pr.under, slices.Clone(pr.layers)
 			res.HConv, res.HRad = pr.sf.hConv, pr.sf.hRad
 		}
 	}

@@ -8,6 +8,7 @@ import (
 
 const (
 	solveTolK    = 1e-7 // K: |fluid-side temperature − fluid temperature| at convergence
+	solveTolTs   = 1e-6 // K: width of the surface-temperature bracket that ends the search
 	solveMaxEval = 100  // residual evaluations per path
 	fdStepK      = 1e-3 // K: finite-difference step for d(surface flux)/dTs
 )
@@ -107,6 +108,41 @@ type pathResult struct {
 	sf        surfState
 	layers    []LayerState
 	evals     int
+	jump      bool // the surface sits on a jump of the surface heat flow (see settleJump)
+}
+
+// settleJump finishes a solve whose residual jumps across zero at res.ts: it finds, by
+// bisection on the heat flow between the two sides' values, the heat flow that conducts
+// from the fluid temperature to res.ts, and reports the convective coefficient that carries
+// it (between the two correlation branches).
+func (p *path) settleJump(res *pathResult, fluid float64, air Air, qLo, qHi float64) error {
+	if !finite(qLo) || !finite(qHi) {
+		return nil // one side never evaluated: the last evaluation stands
+	}
+	var tin float64
+	var err error
+	q := res.q
+	for range 200 {
+		q = (qLo + qHi) / 2
+		if tin, res.under, _, err = p.march(res.ts, q, 0); err != nil {
+			return err
+		}
+		if math.Abs(tin-fluid) <= solveTolK || qHi-qLo <= 1e-12*math.Abs(q) {
+			break
+		}
+		if tin < fluid {
+			qLo = q
+		} else {
+			qHi = q
+		}
+	}
+	res.q, res.jump = q, true
+	flux := q / p.area
+	if dt := res.ts - air.TempC; dt != 0 && p.surf.fixed == 0 {
+		res.sf.hConv = (flux - RadiationFlux(p.surf.emit, res.ts, air.SurroundingsC)) / dt
+	}
+	res.sf.flux = flux
+	return nil
 }
 
 // solve finds the surface temperature of the path.
@@ -142,6 +178,8 @@ func (p *path) solve(fluid float64, air Air) (res pathResult, err error) {
 	lo := math.Min(fluid, math.Min(air.TempC, air.SurroundingsC))
 	hi := math.Max(fluid, math.Max(air.TempC, air.SurroundingsC))
 	x := p.guess(fluid, air, lo, hi)
+	dxOld := hi - lo // Newton steps must keep shrinking (Numerical Recipes' rtsafe)
+	qLo, qHi := math.NaN(), math.NaN()
 	for res.evals < solveMaxEval {
 		r, dr, err := eval(x)
 		if err != nil {
@@ -151,20 +189,23 @@ func (p *path) solve(fluid float64, air Air) (res pathResult, err error) {
 			return res, nil
 		}
 		if r < 0 {
-			lo = x
+			lo, qLo = x, res.q
 		} else {
-			hi = x
+			hi, qHi = x, res.q
 		}
-		if hi-lo <= 1e-9*(1+math.Abs(x)) {
-			// The residual jumps across the root (a correlation switches range there):
-			// the last evaluation is the answer to within the bracket.
-			return res, nil
+		if hi-lo <= solveTolTs {
+			// The residual jumps across the root: a correlation switches range at this
+			// surface temperature (or a k curve extended far beyond its data makes a
+			// layer non-monotone). Keep the surface temperature and take the heat flow
+			// between the two sides that matches the fluid temperature.
+			return res, p.settleJump(&res, fluid, air, qLo, qHi)
 		}
-		next := x - r/dr
-		if !(dr > 0) || !(next > lo && next < hi) {
-			next = (lo + hi) / 2
+		step := r / dr
+		if next := x - step; !(dr > 0) || !(next > lo && next < hi) || math.Abs(2*step) > dxOld {
+			step = x - (lo+hi)/2
 		}
-		x = next
+		dxOld = math.Abs(step)
+		x -= step
 	}
 	return res, fmt.Errorf("calc: surface temperature did not converge in %d evaluations", solveMaxEval)
 }

@@ -27,6 +27,9 @@ func (p *path) warnings(sys System, pr pathResult, air Air, prefix string) []str
 			w = append(w, fmt.Sprintf("%s%s reaches %s °C, below its service limit of %s °C", prefix, name, fmtC(cold), fmtC(l.MinC)))
 		}
 	}
+	if pr.jump {
+		w = append(w, prefix+"the heat balance sits on a step (a convection correlation changes range at this surface temperature, or a k curve is extended far beyond its data): the surface coefficient is taken between its two values")
+	}
 	if p.surf.fixed == 0 {
 		if pr.sf.note != "" {
 			w = append(w, prefix+pr.sf.note)

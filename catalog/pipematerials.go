@@ -75,7 +75,7 @@ var pipeMaterials = []PipeMaterial{
 			"PVC pipe has a service temperature limit of about 60 °C (" + labelCommon + "); check the pipe maker's rating.",
 		},
 		MaxServiceC: 60,
-		Density: 1400, SpecificHeat: 1000, // rigid PVC, from memory
+		Density:     1400, SpecificHeat: 1000, // rigid PVC, from memory
 	},
 }
 

@@ -138,7 +138,15 @@ func (s *Server) fail(w http.ResponseWriter, r *http.Request, err error) {
 		return
 	}
 	w.Header().Set("Cache-Control", "no-store")
-	page := web.ErrorPage(web.ErrorView{Assets: s.assets.urls, Status: status, Title: http.StatusText(status), Message: e.Message})
+	var problems []string
+	for _, f := range e.Fields {
+		if f.Field == "" {
+			problems = append(problems, f.Message)
+		} else {
+			problems = append(problems, f.Field+": "+f.Message)
+		}
+	}
+	page := web.ErrorPage(web.ErrorView{Assets: s.assets.urls, Status: status, Title: http.StatusText(status), Message: e.Message, Problems: problems})
 	templ.Handler(page, templ.WithStatus(status)).ServeHTTP(w, r)
 }
 

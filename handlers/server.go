@@ -34,6 +34,7 @@ type Server struct {
 	log    *slog.Logger
 	cfg    Config
 	assets *assets
+	cop    *http.CrossOriginProtection
 }
 
 // New builds a Server.
@@ -45,13 +46,23 @@ func New(st *store.Store, log *slog.Logger, cfg Config) (*Server, error) {
 	if err != nil {
 		return nil, fmt.Errorf("handlers: %w", err)
 	}
-	return &Server{store: st, log: log, cfg: cfg, assets: a}, nil
+	cop := http.NewCrossOriginProtection()
+	for _, o := range cfg.TrustedOrigins {
+		if err := cop.AddTrustedOrigin(o); err != nil {
+			return nil, fmt.Errorf("handlers: trusted origin: %w", err)
+		}
+	}
+	s := &Server{store: st, log: log, cfg: cfg, assets: a, cop: cop}
+	cop.SetDenyHandler(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		s.fail(w, r, &Error{Code: CodeForbidden, Message: "Cross-origin request refused."})
+	}))
+	return s, nil
 }
 
 // Routes returns the application's handler with every route and safety layer:
 // request logging, panic recovery, security headers, cross-origin protection for
 // unsafe methods (403), and the request body limit.
-func (s *Server) Routes() (http.Handler, error) {
+func (s *Server) Routes() http.Handler {
 	r := chi.NewRouter()
 	r.Use(s.limitBody)
 	r.NotFound(func(w http.ResponseWriter, r *http.Request) { s.fail(w, r, NotFound("page")) })
@@ -66,16 +77,7 @@ func (s *Server) Routes() (http.Handler, error) {
 	s.mountPages(r)
 	r.Route("/api/v1", s.mountAPI)
 
-	cop := http.NewCrossOriginProtection()
-	for _, o := range s.cfg.TrustedOrigins {
-		if err := cop.AddTrustedOrigin(o); err != nil {
-			return nil, fmt.Errorf("handlers: trusted origin: %w", err)
-		}
-	}
-	cop.SetDenyHandler(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
-		s.fail(w, r, &Error{Code: CodeForbidden, Message: "Cross-origin request refused."})
-	}))
-	return s.logRequests(s.recoverPanics(securityHeaders(cop.Handler(r)))), nil
+	return s.logRequests(s.recoverPanics(securityHeaders(s.cop.Handler(r))))
 }
 
 // mountPages is where the screens go: r.Route("/projects", …), r.Route("/materials", …).

@@ -10,6 +10,7 @@ import (
 	"github.com/jackc/pgx/v5"
 	"github.com/jackc/pgx/v5/pgconn"
 
+	"lagwright/migrations"
 	"lagwright/store"
 	"lagwright/store/storetest"
 )
@@ -47,18 +48,22 @@ func TestMigrateDownUp(t *testing.T) {
 	}
 	defer st.Close()
 
+	latest, err := migrations.Latest()
+	if err != nil {
+		t.Fatal(err)
+	}
 	steps := []struct {
 		dir        store.Direction
 		wantVer    uint
 		wantTables bool
 	}{
-		{store.MigrateVersion, 1, true}, // the template is migrated
-		{store.MigrateUp, 1, true},      // no change is success
+		{store.MigrateVersion, latest, true}, // the template is migrated
+		{store.MigrateUp, latest, true},      // no change is success
 		{store.MigrateDown, 0, false},
 		{store.MigrateDown, 0, false}, // nothing to revert is success
 		{store.MigrateVersion, 0, false},
-		{store.MigrateUp, 1, true},
-		{store.MigrateVersion, 1, true},
+		{store.MigrateUp, latest, true},
+		{store.MigrateVersion, latest, true},
 	}
 	for i, s := range steps {
 		v, err := st.Migrate(ctx, s.dir)
@@ -101,12 +106,12 @@ func TestMigrateRefusesDirtySchema(t *testing.T) {
 		if !errors.Is(err, store.ErrDirtySchema) || !strings.Contains(err.Error(), "repair the schema") {
 			t.Errorf("direction %d: err = %v, want ErrDirtySchema with advice", d, err)
 		}
-		if !v.Dirty || v.Version != 1 {
-			t.Errorf("direction %d: version = %+v, want 1 dirty", d, v)
+		if !v.Dirty || v.Version == 0 {
+			t.Errorf("direction %d: version = %+v, want dirty", d, v)
 		}
 	}
-	if v, err := st.Migrate(ctx, store.MigrateVersion); err != nil || v.String() != "1 (dirty)" {
-		t.Errorf("version = %v, %v; want 1 (dirty)", v, err)
+	if v, err := st.Migrate(ctx, store.MigrateVersion); err != nil || !strings.HasSuffix(v.String(), " (dirty)") {
+		t.Errorf("version = %v, %v; want N (dirty)", v, err)
 	}
 }
 

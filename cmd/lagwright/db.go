@@ -1,0 +1,42 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"log/slog"
+	"path/filepath"
+	"time"
+
+	"lagwright/store"
+	"lagwright/store/localpg"
+)
+
+// openStore connects to DATABASE_URL, or when it is unset starts the private
+// cluster in <data>/pg. The returned close function closes the store and stops the
+// cluster (with its own timeout: it runs after ctx is cancelled).
+func openStore(ctx context.Context, cfg config, log *slog.Logger) (*store.Store, func() error, error) {
+	if cfg.DatabaseURL != "" {
+		st, err := store.Open(ctx, cfg.DatabaseURL)
+		if err != nil {
+			return nil, nil, err
+		}
+		return st, func() error { st.Close(); return nil }, nil
+	}
+	cl, err := localpg.Start(ctx, localpg.Options{
+		DataDir: filepath.Join(cfg.DataDir, "pg"),
+		Logger:  log.With("component", "localpg"),
+	})
+	if err != nil {
+		return nil, nil, err
+	}
+	stop := func() error {
+		sctx, cancel := context.WithTimeout(context.Background(), time.Minute)
+		defer cancel()
+		return cl.Stop(sctx)
+	}
+	st, err := store.Open(ctx, cl.DSN("lagwright"))
+	if err != nil {
+		return nil, nil, errors.Join(err, stop())
+	}
+	return st, func() error { st.Close(); return stop() }, nil
+}

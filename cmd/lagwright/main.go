@@ -1,0 +1,79 @@
+// Command lagwright is the Lagwright server and its tools.
+//
+//	lagwright [serve]              run the web app (the default)
+//	lagwright migrate up|down|version
+//	lagwright version
+//
+// Configuration comes from flags, then the environment: LAGWRIGHT_ADDR,
+// DATABASE_URL, LAGWRIGHT_DATA, LAGWRIGHT_LOG_LEVEL. Exit status: 0 ok, 1 failure,
+// 2 usage error.
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+)
+
+func main() {
+	err := run(context.Background(), os.Args[1:], os.Getenv, os.Stdout, os.Stderr)
+	os.Exit(exitCode(err, os.Stderr))
+}
+
+// exitCode reports err and turns it into the process's exit status.
+func exitCode(err error, stderr io.Writer) int {
+	if err == nil {
+		return 0
+	}
+	fmt.Fprintln(stderr, "lagwright:", err)
+	var ue usageError
+	if errors.As(err, &ue) {
+		fmt.Fprintln(stderr, "Run 'lagwright help' for usage.")
+		return 2
+	}
+	return 1
+}
+
+// run is the whole program, with its dependencies passed in (no globals), so tests
+// can run it in-process. Each subcommand is one case.
+func run(ctx context.Context, args []string, getenv func(string) string, stdout, stderr io.Writer) error {
+	cmd := "serve"
+	if len(args) > 0 {
+		cmd, args = args[0], args[1:]
+	}
+	switch cmd {
+	case "serve":
+		return serve(ctx, args, getenv, stderr)
+	case "migrate":
+		return migrateCmd(ctx, args, getenv, stdout, stderr)
+	case "version":
+		fmt.Fprintln(stdout, "lagwright", version())
+		return nil
+	case "help", "-h", "-help", "--help":
+		fmt.Fprint(stdout, usage)
+		return nil
+	default:
+		return usageError{fmt.Sprintf("unknown command %q", cmd)}
+	}
+}
+
+const usage = `Usage: lagwright <command> [flags]
+
+Commands:
+  serve                     run the web app (default)
+  migrate up|down|version   apply, revert, or show the database schema
+  version                   print the version
+
+Flags and environment (flags win):
+  -addr          LAGWRIGHT_ADDR        listen address (default 127.0.0.1:8080)
+  -database-url  DATABASE_URL          PostgreSQL URL; unset: a private cluster in the data folder
+  -data          LAGWRIGHT_DATA        data folder (default ./data)
+  -log-level     LAGWRIGHT_LOG_LEVEL   debug, info, warn or error (default info)
+`
+
+// usageError marks a mistake in the command line (exit status 2).
+type usageError struct{ msg string }
+
+func (e usageError) Error() string { return e.msg }

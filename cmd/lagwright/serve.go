@@ -1,0 +1,91 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"log/slog"
+	"net"
+	"net/http"
+	"os"
+	"os/signal"
+	"syscall"
+	"time"
+
+	"lagwright/handlers"
+	"lagwright/store"
+)
+
+// Server timeouts. WriteTimeout bounds a whole response: raise it if an export
+// of a very large project needs longer.
+const (
+	readHeaderTimeout = 5 * time.Second
+	readTimeout       = 30 * time.Second
+	writeTimeout      = 60 * time.Second
+	idleTimeout       = 120 * time.Second
+	shutdownTimeout   = 15 * time.Second
+)
+
+// serve runs the web app until ctx is cancelled or SIGINT/SIGTERM arrives, then
+// drains requests, closes the store and stops the private database.
+func serve(ctx context.Context, args []string, getenv func(string) string, stderr io.Writer) (err error) {
+	cfg, rest, err := parseConfig("serve", args, getenv, stderr)
+	if err != nil {
+		return err
+	}
+	if len(rest) > 0 {
+		return usageError{fmt.Sprintf("serve takes no arguments, got %q", rest)}
+	}
+	log := newLogger(stderr, cfg.LogLevel)
+	ctx, stop := signal.NotifyContext(ctx, os.Interrupt, syscall.SIGTERM)
+	defer stop()
+
+	t0 := time.Now()
+	st, closeStore, err := openStore(ctx, cfg, log)
+	if err != nil {
+		return err
+	}
+	defer func() { err = errors.Join(err, closeStore()) }()
+	v, err := st.Migrate(ctx, store.MigrateUp)
+	if err != nil {
+		return err
+	}
+	log.Info("database ready", "schema_version", v.String(), "elapsed", time.Since(t0).Round(time.Millisecond))
+
+	srv, err := handlers.New(st, log, handlers.Config{Version: version()})
+	if err != nil {
+		return err
+	}
+	// Listen before serving, so a taken port fails at once and tests may use :0.
+	ln, err := net.Listen("tcp", cfg.Addr)
+	if err != nil {
+		return fmt.Errorf("listen: %w", err)
+	}
+	hs := &http.Server{
+		Handler:           srv.Routes(),
+		ReadHeaderTimeout: readHeaderTimeout,
+		ReadTimeout:       readTimeout,
+		WriteTimeout:      writeTimeout,
+		IdleTimeout:       idleTimeout,
+		ErrorLog:          slog.NewLogLogger(log.Handler(), slog.LevelWarn),
+		BaseContext:       func(net.Listener) context.Context { return context.WithoutCancel(ctx) },
+	}
+	log.Info("listening", "addr", ln.Addr().String(), "url", "http://"+ln.Addr().String()+"/", "version", version())
+
+	errc := make(chan error, 1)
+	go func() { errc <- hs.Serve(ln) }()
+	select {
+	case err := <-errc:
+		return fmt.Errorf("serve: %w", err)
+	case <-ctx.Done():
+	}
+	stop() // a second Ctrl-C now kills at once
+	log.Info("shutting down")
+	sctx, cancel := context.WithTimeout(context.Background(), shutdownTimeout)
+	defer cancel()
+	if err := hs.Shutdown(sctx); err != nil {
+		return fmt.Errorf("shutdown: %w", err)
+	}
+	return nil
+}
