@@ -1,5 +1,7 @@
 package catalog
 
+import "math"
+
 // KPoint is an apparent thermal conductivity K (W/(m·K)) at a mean temperature MeanC (°C), as
 // the ASTM material specifications and makers' data sheets publish it.
 type KPoint struct{ MeanC, K float64 }
@@ -21,11 +23,12 @@ type Material struct {
 // in Btu·in/(h·ft²·°F).
 func ip(meanF, kBtuIn float64) KPoint { return KPoint{MeanC: FToC(meanF), K: kBtuIn * BtuInToWmK} }
 
-// inches converts a list of thicknesses in inches to mm.
+// inches converts a list of thicknesses in inches to mm, rounded to 0.01 mm so that
+// 1½ in reads 38.1 and not 38.099999999999994.
 func inches(in ...float64) []float64 {
 	out := make([]float64, len(in))
 	for i, v := range in {
-		out[i] = in2mm(v)
+		out[i] = math.Round(in2mm(v)*100) / 100
 	}
 	return out
 }
