@@ -137,7 +137,7 @@ func TestSchemaConstraints(t *testing.T) {
 		sql, code string
 	}{
 		{`INSERT INTO lines (project_id, tag, input) VALUES (1, 'HW-1', '{}')`, "23505"}, // tag unique per project
-		{`DELETE FROM materials WHERE slug = 'mw'`, "23503"},                              // material in use
+		{`DELETE FROM materials WHERE slug = 'mw'`, "23503"},                             // material in use
 		{`INSERT INTO projects (name, units) VALUES ('x', 'imperial')`, "23514"},         // units check
 	} {
 		_, err := conn.Exec(ctx, tc.sql)

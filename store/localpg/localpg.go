@@ -3,7 +3,7 @@
 // given, and the database of the tests.
 //
 // The cluster is created with initdb on first start, listens on a unix socket only
-// (listen_addresses = ''), trusts local connections (the socket lives in a directory
+// (listen_addresses is empty), trusts local connections (the socket lives in a directory
 // only the database user can enter), is stopped with `pg_ctl stop -m fast` by
 // Stop, and is reused on the next start. A cluster left running by a process that
 // was killed is found through postmaster.pid and `pg_ctl status` and adopted; a
