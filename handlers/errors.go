@@ -11,6 +11,7 @@ import (
 	"github.com/a-h/templ"
 	"github.com/jackc/pgx/v5/pgconn"
 
+	"lagwright/analysis"
 	"lagwright/store"
 	"lagwright/web"
 )
@@ -70,10 +71,20 @@ func classify(err error) *Error {
 	if errors.As(err, &appErr) {
 		return appErr
 	}
+	var fe analysis.FieldErrors
+	if errors.As(err, &fe) {
+		fields := make([]FieldError, len(fe))
+		for i, f := range fe {
+			fields[i] = FieldError{Field: f.Field, Message: f.Message}
+		}
+		return Invalid(fields...)
+	}
 	var pgErr *pgconn.PgError
 	switch {
 	case errors.Is(err, store.ErrNotFound):
 		return &Error{Code: CodeNotFound, Message: "Not found.", Err: err}
+	case errors.Is(err, store.ErrDuplicateTag):
+		return &Error{Code: CodeConflict, Message: "That tag is already used in this project.", Err: err}
 	case errors.Is(err, store.ErrConflict):
 		return &Error{Code: CodeConflict, Message: "Someone else changed this meanwhile; reload and try again.", Err: err}
 	case errors.As(err, &pgErr) && pgErr.Code == "23505": // unique_violation

@@ -80,9 +80,20 @@ func (s *Server) Routes() http.Handler {
 	return s.logRequests(s.recoverPanics(securityHeaders(s.cop.Handler(r))))
 }
 
-// mountPages is where the screens go: r.Route("/projects", …), r.Route("/materials", …).
-func (s *Server) mountPages(r chi.Router) {}
+// mountPages mounts the screens, one resource per file (routes_*.go).
+func (s *Server) mountPages(r chi.Router) {
+	s.projectPages(r)
+	s.materialPages(r)
+	s.schedulePages(r)
+	s.importPages(r)
+	s.comparePages(r)
+}
 
-// mountAPI is where the JSON API goes, under /api/v1: r.Post("/calc", s.apiCalc), …
-// Errors from API routes are answered as JSON by s.fail.
-func (s *Server) mountAPI(r chi.Router) {}
+// mountAPI mounts the JSON API under /api/v1. Errors from API routes are answered
+// as JSON by s.fail.
+func (s *Server) mountAPI(r chi.Router) {
+	r.Post("/calc", s.apiCalc)
+	s.projectAPI(r)
+	s.materialAPI(r)
+	s.importAPI(r)
+}

@@ -2,6 +2,7 @@
 //
 //	lagwright [serve]              run the web app (the default)
 //	lagwright migrate up|down|version
+//	lagwright calc < line.json     analyse one line (JSON in, JSON out; no database)
 //	lagwright version
 //
 // Configuration comes from flags, then the environment: LAGWRIGHT_ADDR,
@@ -18,7 +19,7 @@ import (
 )
 
 func main() {
-	err := run(context.Background(), os.Args[1:], os.Getenv, os.Stdout, os.Stderr)
+	err := run(context.Background(), os.Args[1:], os.Getenv, os.Stdin, os.Stdout, os.Stderr)
 	os.Exit(exitCode(err, os.Stderr))
 }
 
@@ -26,6 +27,10 @@ func main() {
 func exitCode(err error, stderr io.Writer) int {
 	if err == nil {
 		return 0
+	}
+	var es exitStatus
+	if errors.As(err, &es) {
+		return es.code
 	}
 	fmt.Fprintln(stderr, "lagwright:", err)
 	var ue usageError
@@ -38,7 +43,7 @@ func exitCode(err error, stderr io.Writer) int {
 
 // run is the whole program, with its dependencies passed in (no globals), so tests
 // can run it in-process. Each subcommand is one case.
-func run(ctx context.Context, args []string, getenv func(string) string, stdout, stderr io.Writer) error {
+func run(ctx context.Context, args []string, getenv func(string) string, stdin io.Reader, stdout, stderr io.Writer) error {
 	cmd := "serve"
 	if len(args) > 0 {
 		cmd, args = args[0], args[1:]
@@ -48,6 +53,8 @@ func run(ctx context.Context, args []string, getenv func(string) string, stdout,
 		return serve(ctx, args, getenv, stderr)
 	case "migrate":
 		return migrateCmd(ctx, args, getenv, stdout, stderr)
+	case "calc":
+		return calcCmd(args, stdin, stdout)
 	case "version":
 		fmt.Fprintln(stdout, "lagwright", version())
 		return nil
@@ -64,6 +71,7 @@ const usage = `Usage: lagwright <command> [flags]
 Commands:
   serve                     run the web app (default)
   migrate up|down|version   apply, revert, or show the database schema
+  calc                      analyse one line: JSON on stdin, JSON on stdout (exit 2 on bad input)
   version                   print the version
 
 Flags and environment (flags win):

@@ -58,7 +58,7 @@ func TestUsageAndExitCodes(t *testing.T) {
 		{[]string{"serve", "-log-level", "loud"}, 2, ""},
 	} {
 		var stdout, stderr bytes.Buffer
-		err := run(context.Background(), tc.args, env(nil), &stdout, &stderr)
+		err := run(context.Background(), tc.args, env(nil), strings.NewReader(""), &stdout, &stderr)
 		if got := exitCode(err, &stderr); got != tc.code {
 			t.Errorf("%v: exit %d, want %d (err %v)", tc.args, got, tc.code, err)
 		}
@@ -101,7 +101,7 @@ func TestMigrateCommand(t *testing.T) {
 		{"up", top},
 	} {
 		var stdout, stderr bytes.Buffer
-		if err := run(context.Background(), []string{"migrate", tc.arg}, env(map[string]string{"DATABASE_URL": dsn}), &stdout, &stderr); err != nil {
+		if err := run(context.Background(), []string{"migrate", tc.arg}, env(map[string]string{"DATABASE_URL": dsn}), strings.NewReader(""), &stdout, &stderr); err != nil {
 			t.Fatalf("migrate %s: %v\n%s", tc.arg, err, stderr.String())
 		}
 		if stdout.String() != tc.want {
@@ -129,7 +129,7 @@ func TestServeEndToEnd(t *testing.T) {
 			go func() {
 				done <- run(ctx, []string{"serve"}, env(map[string]string{
 					"LAGWRIGHT_ADDR": "127.0.0.1:0", "LAGWRIGHT_DATA": data,
-				}), io.Discard, stderr)
+				}), strings.NewReader(""), io.Discard, stderr)
 			}()
 			var addr string
 			for deadline := time.Now().Add(2 * time.Minute); addr == ""; {

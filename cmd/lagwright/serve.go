@@ -51,6 +51,9 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 	if err != nil {
 		return err
 	}
+	if err := st.SeedCatalog(ctx); err != nil {
+		return err
+	}
 	log.Info("database ready", "schema_version", v.String(), "elapsed", time.Since(t0).Round(time.Millisecond))
 
 	srv, err := handlers.New(st, log, handlers.Config{Version: version()})

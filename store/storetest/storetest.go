@@ -151,9 +151,12 @@ func setUp(ctx context.Context) (cleanup func() error, err error) {
 		return cleanup, err
 	}
 	_, err = st.Migrate(ctx, store.MigrateUp)
+	if err == nil {
+		err = st.SeedCatalog(ctx) // as the app does at start
+	}
 	st.Close()
 	if err != nil {
-		return cleanup, fmt.Errorf("migrate template database: %w", err)
+		return cleanup, fmt.Errorf("migrate and seed template database: %w", err)
 	}
 	env.ready = true
 	return cleanup, nil
