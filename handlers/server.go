@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"log/slog"
 	"net/http"
+	"sync"
 
 	"github.com/go-chi/chi/v5"
 
@@ -35,6 +36,8 @@ type Server struct {
 	cfg    Config
 	assets *assets
 	cop    *http.CrossOriginProtection
+	// jobs holds long-running work (imports) by id, so a page can show its progress.
+	jobs sync.Map
 }
 
 // New builds a Server.
