@@ -7,4 +7,3 @@ func (s *Server) importPages(r chi.Router) {}
 
 // importAPI mounts the import routes.
 func (s *Server) importAPI(r chi.Router) {}
-

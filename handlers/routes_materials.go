@@ -7,4 +7,3 @@ func (s *Server) materialPages(r chi.Router) {}
 
 // materialAPI mounts the materials routes.
 func (s *Server) materialAPI(r chi.Router) {}
-

@@ -7,4 +7,3 @@ func (s *Server) projectPages(r chi.Router) {}
 
 // projectAPI mounts the projects routes.
 func (s *Server) projectAPI(r chi.Router) {}
-
