@@ -53,16 +53,27 @@ func Analyse(in Input, r Resolver) (*Output, error) {
 	if err != nil {
 		return nil, err
 	}
-	a := &analyser{l: l, cache: map[solveKey]calc.Result{}}
+	a := &analyser{l: l}
 	return a.run()
 }
 
 // analyser carries one analysis and a cache of solves, so criteria sharing conditions
 // and thicknesses never solve twice.
 type analyser struct {
-	l     *line
-	cache map[solveKey]calc.Result
-	out   Output
+	l *line
+	// Solves of this analysis by key: the first len(memoBuf) in memo, searched linearly
+	// (a line needs about ten), any more in cache (made when needed).
+	memo    []memoEntry
+	memoBuf [16]memoEntry
+	cache   map[solveKey]calc.Result
+	layers  []calc.Layer // reused by system for the sized layer's thicknesses
+	nums    []float64    // backing of num
+	out     Output
+}
+
+type memoEntry struct {
+	key solveKey
+	res calc.Result
 }
 
 type solveKey struct {
@@ -95,14 +106,40 @@ func (a *analyser) system(tMM float64) calc.System {
 		s.Layers = l.base.Layers[:n-1]
 		return s
 	}
+	// calc.Solve keeps nothing of the system it is given, so one layer buffer serves
+	// every sized system of the analysis.
 	s := l.base
-	s.Layers = slices.Clone(l.base.Layers)
-	s.Layers[n-1].Thickness = tMM / 1000 * l.installed[n-1]
+	a.layers = append(a.layers[:0], l.base.Layers...)
+	a.layers[n-1].Thickness = tMM / 1000 * l.installed[n-1]
+	s.Layers = a.layers
 	return s
 }
 
+// systemKey names the system of tMM by what it is, so that equal systems share one
+// solve: no sized layer on a single-layer line is the bare surface, and a candidate
+// equal to the thickness as specified is the line as specified.
+func (a *analyser) systemKey(tMM float64) float64 {
+	l := a.l
+	n := len(l.base.Layers)
+	switch {
+	case tMM == asSpecified || tMM == bareSurface || n == 0:
+		return tMM
+	case tMM == 0 && n <= 1:
+		return bareSurface
+	case tMM > 0 && tMM/1000*l.installed[n-1] == l.base.Layers[n-1].Thickness:
+		return asSpecified
+	}
+	return tMM
+}
+
 func (a *analyser) solve(tMM, fluidC float64, air calc.Air) (calc.Result, error) {
+	tMM = a.systemKey(tMM)
 	k := solveKey{air: air, fluid: fluidC, tMM: tMM}
+	for i := range a.memo {
+		if a.memo[i].key == k {
+			return a.memo[i].res, nil
+		}
+	}
 	if r, ok := a.cache[k]; ok {
 		return r, nil
 	}
@@ -110,8 +147,36 @@ func (a *analyser) solve(tMM, fluidC float64, air calc.Air) (calc.Result, error)
 	if err != nil {
 		return r, fmt.Errorf("heat balance: %w", err)
 	}
-	a.cache[k] = r
+	switch {
+	case a.memo == nil:
+		a.memo = append(a.memoBuf[:0], memoEntry{k, r})
+	case len(a.memo) < cap(a.memo):
+		a.memo = append(a.memo, memoEntry{k, r})
+	default:
+		if a.cache == nil {
+			a.cache = map[solveKey]calc.Result{}
+		}
+		a.cache[k] = r
+	}
 	return r, nil
+}
+
+// num returns a pointer to v for the answer. The answer's optional numbers share small
+// blocks instead of taking one allocation each.
+func (a *analyser) num(v float64) *float64 {
+	if len(a.nums) == cap(a.nums) {
+		a.nums = make([]float64, 0, 32)
+	}
+	a.nums = append(a.nums, v)
+	return &a.nums[len(a.nums)-1]
+}
+
+// numRound is num(round(*p, d)), nil for nil.
+func (a *analyser) numRound(p *float64, d int) *float64 {
+	if p == nil {
+		return nil
+	}
+	return a.num(round(*p, d))
 }
 
 func (a *analyser) run() (*Output, error) {
@@ -121,7 +186,7 @@ func (a *analyser) run() (*Output, error) {
 	o.Geometry = l.in.Geometry
 	o.OperatingTempC = round(l.opC, 3)
 	if l.shape.IsPipe() {
-		o.PipeODmm = ptr(round(l.base.PipeOD*1000, 2))
+		o.PipeODmm = a.num(round(l.base.PipeOD*1000, 2))
 	}
 	for i, ly := range l.base.Layers {
 		o.InsulationMM += ly.Thickness * 1000 / l.installed[i]
@@ -154,7 +219,7 @@ func (a *analyser) run() (*Output, error) {
 		Condensation: l.condensation.out(), Economics: l.econ.out()}
 	if l.crit.freezeHours != nil || o.FreezeHoursTo0C != nil {
 		f := l.freeze.out()
-		f.InitialTempC = ptr(a.freezeInitial())
+		f.InitialTempC = a.num(a.freezeInitial())
 		o.ConditionsUsed.Freeze = &f
 	}
 	o.Assumptions = nonNil(l.assumptions)
@@ -165,18 +230,18 @@ func (a *analyser) run() (*Output, error) {
 func (a *analyser) shapeHeatBalance(main, bare calc.Result) {
 	l, o := a.l, &a.out
 	if !l.shape.IsFlat() {
-		o.HeatFlowWPerM = ptr(round(main.HeatFlowPerM, 4))
-		o.BareHeatFlow = ptr(round(bare.HeatFlowPerM, 4))
-		o.OuterAreaM2PerM = ptr(round(main.OuterAreaPerM, 5))
+		o.HeatFlowWPerM = a.num(round(main.HeatFlowPerM, 4))
+		o.BareHeatFlow = a.num(round(bare.HeatFlowPerM, 4))
+		o.OuterAreaM2PerM = a.num(round(main.OuterAreaPerM, 5))
 		if l.lengthM > 0 {
-			o.EquivalentLengthM = ptr(round(l.equivLengthM, 3))
-			o.HeatFlowW = ptr(round(main.HeatFlowPerM*l.equivLengthM, 2))
+			o.EquivalentLengthM = a.num(round(l.equivLengthM, 3))
+			o.HeatFlowW = a.num(round(main.HeatFlowPerM*l.equivLengthM, 2))
 		}
 	} else if l.areaM2 > 0 {
-		o.HeatFlowW = ptr(round(main.HeatFlux*l.areaM2, 2))
+		o.HeatFlowW = a.num(round(main.HeatFlux*l.areaM2, 2))
 	}
 	if main.OuterDiameter > 0 {
-		o.OuterDiameterMM = ptr(round(main.OuterDiameter*1000, 2))
+		o.OuterDiameterMM = a.num(round(main.OuterDiameter*1000, 2))
 	}
 	o.HeatFluxWm2 = round(main.HeatFlux, 4)
 	o.BareHeatFluxWm2 = round(bare.HeatFlux, 4)
@@ -184,8 +249,8 @@ func (a *analyser) shapeHeatBalance(main, bare calc.Result) {
 	o.SurfaceTempC = round(main.SurfaceC, 3)
 	o.PipeSurfaceC = round(main.PipeSurfaceC, 3)
 	o.SurfaceCoeff = SurfaceCoeff{Convection: round(main.HConv, 4), Radiation: round(main.HRad, 4)}
-	o.InterfaceTempsC = []float64{}
-	o.Layers = []LayerOut{}
+	o.InterfaceTempsC = make([]float64, 0, len(main.Layers))
+	o.Layers = make([]LayerOut, 0, len(main.Layers))
 	for i, ls := range main.Layers {
 		o.InterfaceTempsC = append(o.InterfaceTempsC, round(ls.InnerC, 3))
 		o.Layers = append(o.Layers, LayerOut{Material: l.layerMaterials[i], ThicknessMM: round(l.base.Layers[i].Thickness*1000, 2),
@@ -197,7 +262,7 @@ func (a *analyser) shapeHeatBalance(main, bare calc.Result) {
 			HeatFlowWPerM: round(f.HeatFlowPerM, 4), HeatFluxWm2: round(f.HeatFlux, 4)})
 	}
 	if len(l.base.Layers) > 0 && bare.HeatFlux != 0 && math.Signbit(bare.HeatFlux) == math.Signbit(main.HeatFlux) {
-		o.EfficiencyPct = ptr(round(100*(1-main.HeatFlowPerM/bare.HeatFlowPerM), 3))
+		o.EfficiencyPct = a.num(round(100*(1-main.HeatFlowPerM/bare.HeatFlowPerM), 3))
 		if *o.EfficiencyPct < 0 {
 			l.warn("the insulation as specified increases the heat flow over the bare surface (below the critical radius)")
 		}
@@ -237,7 +302,7 @@ func (a *analyser) dewPoint() error {
 	if err != nil {
 		return fmt.Errorf("dew point: %w", err)
 	}
-	o.DewPointC = ptr(round(dp, 3))
+	o.DewPointC = a.num(round(dp, 3))
 	o.DewPointKind = "dew point"
 	if calc.IsFrostPoint(dp) {
 		o.DewPointKind = "frost point"
@@ -246,7 +311,7 @@ func (a *analyser) dewPoint() error {
 	if err != nil {
 		return err
 	}
-	o.CondensationMarginK = ptr(round(coldest(r)-dp, 3))
+	o.CondensationMarginK = a.num(round(coldest(r)-dp, 3))
 	return nil
 }
 
@@ -275,13 +340,13 @@ const runSegments = 10
 func (a *analyser) alongRun(main calc.Result) error {
 	l, o := a.l, &a.out
 	if l.steamAbsPa > 0 && l.fluid == "steam" {
-		o.SteamSatTempC = ptr(round(l.opC, 3))
+		o.SteamSatTempC = a.num(round(l.opC, 3))
 		hfg, err := calc.SteamLatentHeat(l.steamAbsPa)
 		if err != nil {
 			return fmt.Errorf("steam latent heat: %w", err)
 		}
 		if l.lengthM > 0 {
-			o.CondensateKgPerH = ptr(round(calc.CondensateKgPerH(main.HeatFlowPerM*l.equivLengthM, hfg), 4))
+			o.CondensateKgPerH = a.num(round(calc.CondensateKgPerH(main.HeatFlowPerM*l.equivLengthM, hfg), 4))
 			l.assume("condensate from the run's heat loss with latent heat %.1f kJ/kg (IAPWS-IF97)", hfg/1000)
 		} else {
 			l.warn("give length_m for the run's condensate load")
@@ -295,8 +360,8 @@ func (a *analyser) alongRun(main calc.Result) error {
 	if err != nil {
 		return err
 	}
-	o.OutletTempC = ptr(round(out, 4))
-	o.TempChangeK = ptr(round(l.opC-out, 4))
+	o.OutletTempC = a.num(round(out, 4))
+	o.TempChangeK = a.num(round(l.opC-out, 4))
 	l.assume("temperature change marched in %d segments over the length plus fittings (%.1f m), at the design conditions", runSegments, l.equivLengthM)
 	return nil
 }
@@ -340,8 +405,8 @@ func (a *analyser) freezeTimes() error {
 	if err != nil {
 		return err
 	}
-	o.FreezeHoursTo0C = ptr(round(h0, 3))
-	o.FreezeHoursToFreeze = ptr(round(hf, 3))
+	o.FreezeHoursTo0C = a.num(round(h0, 3))
+	o.FreezeHoursToFreeze = a.num(round(hf, 3))
 	l.assume("freeze times for stagnant water (ASHRAE Fundamentals ch. 23 cooling form with the wall's heat capacity and the outer film; "+
 		"ISO 12241 §6.2 form for freezing %.0f %% of the water); inner film and wall resistance neglected", 100*l.crit.freezeFraction)
 	return nil
@@ -350,7 +415,7 @@ func (a *analyser) freezeTimes() error {
 // freezeHours gives hours to 0 °C and to the frozen fraction with the sized layer at tMM.
 func (a *analyser) freezeHours(tMM float64) (float64, float64, error) {
 	l := a.l
-	sys := a.system(tMM)
+	sys := l.base // the pipe: the same for every thickness
 	ti := a.freezeInitial()
 	air := l.freeze.air
 	mid := ti / 2
@@ -416,11 +481,9 @@ func nonNil(s []string) []string {
 }
 
 func dedupe(s []string) []string {
-	seen := map[string]bool{}
 	out := s[:0:0]
 	for _, v := range s {
-		if !seen[v] {
-			seen[v] = true
+		if !slices.Contains(out, v) { // a few strings: no map needed
 			out = append(out, v)
 		}
 	}
@@ -429,7 +492,7 @@ func dedupe(s []string) []string {
 
 // round rounds to the given number of decimals, for a readable answer.
 func round(v float64, decimals int) float64 {
-	p := math.Pow(10, float64(decimals))
+	p := math.Pow10(decimals) // exact powers of ten, as math.Pow(10, decimals) gives
 	r := math.Round(v*p) / p
 	if r == 0 {
 		return 0 // no "-0"

@@ -114,6 +114,10 @@ type Economics struct {
 	LifeYears         *int        `json:"life_years,omitempty"`
 	CO2KgPerKWh       *float64    `json:"co2_kg_per_kwh,omitempty"`
 	InstalledCostPerM []CostPoint `json:"installed_cost_per_m,omitempty"`
+	// InstalledCostSource says where InstalledCostPerM came from, for the assumptions:
+	// "" (given), "cost_table" (the project's cost table), "example" (the labelled example
+	// table, not prices) or "no_match" (a cost table with no row for this line).
+	InstalledCostSource string `json:"installed_cost_source,omitempty"`
 }
 
 // CostPoint is the installed cost of one thickness, per metre of pipe or duct (per m²

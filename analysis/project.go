@@ -6,6 +6,8 @@ import (
 	"encoding/json"
 	"fmt"
 	"slices"
+	"strconv"
+	"strings"
 
 	"lagwright/calc"
 )
@@ -19,6 +21,9 @@ type ProjectSettings struct {
 	Criteria  ProjectCriteria   `json:"criteria"`
 	Economics *Economics        `json:"economics,omitempty"`
 	Fittings  FittingAllowances `json:"fittings"`
+	// CostTable is the installed cost per metre by material, size and thickness that
+	// Effective turns into each line's economics.installed_cost_per_m.
+	CostTable []CostRow `json:"cost_table,omitempty"`
 }
 
 // Location holds the design conditions of one location (indoor or outdoor) with its
@@ -93,6 +98,9 @@ func (p ProjectSettings) Validate() error {
 	}
 	rangeCheck(&c, "settings.criteria.max_surface_temp_c", p.Criteria.MaxSurfaceTempC, 20, 200, "°C")
 	rangeCheck(&c, "settings.criteria.dew_margin_k", p.Criteria.DewMarginK, 0, 20, "K")
+	for _, fe := range CostTable(p.CostTable).Validate() {
+		c.add(fmt.Sprintf("settings.cost_table[%d].%s", fe.Row, fe.Field), "%s", fe.Message)
+	}
 	for name, v := range map[string]float64{"elbow_m": p.Fittings.ElbowM, "tee_m": p.Fittings.TeeM, "valve_m": p.Fittings.ValveM,
 		"flange_m": p.Fittings.FlangeM, "cap_m": p.Fittings.CapM} {
 		rangeCheck(&c, "settings.fittings."+name, &v, 0, 50, "m")
@@ -141,6 +149,27 @@ func (p ProjectSettings) Effective(location string, line Input, fit Fittings) In
 	in.Criteria = &cr
 	if in.Economics == nil && p.Economics != nil && p.Economics.EnergyPricePerKWh != nil {
 		e := *p.Economics
+		if e.Efficiency != nil && e.COP != nil { // the project prices hot and cold lines
+			if lineIsHot(in) {
+				e.COP = nil
+			} else {
+				e.Efficiency = nil
+			}
+		}
+		if len(e.InstalledCostPerM) == 0 && len(p.CostTable) > 0 {
+			mat := ""
+			if n := len(in.Layers); n > 0 {
+				mat = in.Layers[n-1].Material
+			}
+			pts, example := CostTable(p.CostTable).Match(mat, in.PipeSize)
+			e.InstalledCostPerM, e.InstalledCostSource = pts, costFromTable
+			switch {
+			case len(pts) == 0:
+				e.InstalledCostSource = costNoMatch
+			case example:
+				e.InstalledCostSource = costExample
+			}
+		}
 		in.Economics = &e
 	}
 	if eq := p.Fittings.EquivalentLength(fit); eq > 0 && in.FittingsEquivLengthM == nil && in.LengthM != nil {
@@ -180,4 +209,186 @@ func (in Input) Slugs() (materials []string, jacket string) {
 		}
 	}
 	return materials, in.Jacket
+}
+
+// lineIsHot tells a line that loses heat (priced by the heating efficiency) from one
+// that gains it (priced by the cooling COP): saturated steam, or an operating
+// temperature above the ambient.
+func lineIsHot(in Input) bool {
+	if in.SteamGaugePressureKPa != nil {
+		return true
+	}
+	return in.OperatingTempC != nil && in.AmbientTempC != nil && *in.OperatingTempC > *in.AmbientTempC
+}
+
+// AnySize is the nominal size of a cost row that prices every size of its material.
+const AnySize = "any"
+
+// CostRow is one installed cost in a project's cost table: per metre of pipe or duct
+// (per m² for flat surfaces) of one material, nominal size and thickness. Example rows
+// are the labelled example the user must replace; results priced with them say so.
+type CostRow struct {
+	Material    string  `json:"material"`     // material slug
+	NominalSize string  `json:"nominal_size"` // "NPS 4", "DN100", "CTS 1" … or "any"
+	ThicknessMM float64 `json:"thickness_mm"`
+	CostPerM    float64 `json:"cost_per_m"`
+	Example     bool    `json:"example,omitempty"`
+}
+
+// CostTable is a project's installed costs.
+type CostTable []CostRow
+
+// CostRowError is a problem with one row of a cost table (Row counts from 0).
+type CostRowError struct {
+	Row     int
+	Field   string // "material", "nominal_size", "thickness_mm", "cost_per_m"
+	Message string
+}
+
+// MaxCostRows bounds a project's cost table.
+const MaxCostRows = 2000
+
+// Validate checks each row: a material, a size (or "any"), a thickness 0 < t ≤ 600 mm,
+// a cost 0 … 10⁷, and no two rows for the same material, size and thickness.
+func (t CostTable) Validate() []CostRowError {
+	var out []CostRowError
+	if len(t) > MaxCostRows {
+		return []CostRowError{{Row: MaxCostRows, Field: "material", Message: fmt.Sprintf("at most %d rows", MaxCostRows)}}
+	}
+	type key struct {
+		mat, size string
+		t         float64
+	}
+	seen := map[key]int{}
+	for i, r := range t {
+		switch {
+		case r.Material == "":
+			out = append(out, CostRowError{i, "material", "is required"})
+		case len(r.Material) > 100:
+			out = append(out, CostRowError{i, "material", "is longer than 100 characters"})
+		}
+		if NormalSize(r.NominalSize) == "" {
+			out = append(out, CostRowError{i, "nominal_size", `is required (a nominal size such as "NPS 4", "DN100", or "any")`})
+		}
+		if !(r.ThicknessMM > 0 && r.ThicknessMM <= maxThicknessMM) {
+			out = append(out, CostRowError{i, "thickness_mm", fmt.Sprintf("must be greater than 0 and at most %d mm", maxThicknessMM)})
+		}
+		if !(r.CostPerM >= 0 && r.CostPerM <= 1e7) {
+			out = append(out, CostRowError{i, "cost_per_m", "must be between 0 and 10000000"})
+		}
+		k := key{r.Material, NormalSize(r.NominalSize), round(r.ThicknessMM, 2)}
+		if j, ok := seen[k]; ok && r.Material != "" && k.size != "" {
+			out = append(out, CostRowError{i, "thickness_mm", fmt.Sprintf("repeats row %d (same material, size and thickness)", j+1)})
+		} else {
+			seen[k] = i
+		}
+	}
+	return out
+}
+
+// Match gives the installed cost points of a material at a nominal size, ascending by
+// thickness: for each thickness the row of that exact size wins over the "any" row.
+// example reports whether any point came from an example row. A line without a
+// nominal size (plain OD, ducts, flats) matches only "any" rows.
+func (t CostTable) Match(material, size string) (points []CostPoint, example bool) {
+	want := NormalSize(size)
+	type pick struct {
+		row   CostRow
+		exact bool
+	}
+	by := map[float64]pick{}
+	for _, r := range t {
+		if r.Material != material || material == "" {
+			continue
+		}
+		rs := NormalSize(r.NominalSize)
+		exact := want != "" && want != AnySize && rs == want
+		if !exact && rs != AnySize {
+			continue
+		}
+		k := round(r.ThicknessMM, 2)
+		if p, ok := by[k]; ok && p.exact && !exact {
+			continue
+		}
+		by[k] = pick{r, exact}
+	}
+	for k, p := range by {
+		points = append(points, CostPoint{ThicknessMM: k, Cost: p.row.CostPerM})
+		example = example || p.row.Example
+	}
+	slices.SortFunc(points, func(a, b CostPoint) int {
+		switch {
+		case a.ThicknessMM < b.ThicknessMM:
+			return -1
+		case a.ThicknessMM > b.ThicknessMM:
+			return 1
+		}
+		return 0
+	})
+	return points, example
+}
+
+// NormalSize writes a nominal size in one form so that "NPS 4", "4", "4\"", "4 in" and
+// "nps4" match, as do "NPS 1-1/2", "1 1/2" and "1.5"; "DN100" and "dn 100" match; "CTS 1"
+// and "cts1" match; "any", "*" and "all" are AnySize. Empty or unreadable text gives "".
+func NormalSize(s string) string {
+	s = strings.ToLower(strings.TrimSpace(s))
+	switch s {
+	case "":
+		return ""
+	case "any", "*", "all":
+		return AnySize
+	}
+	prefix := "NPS "
+	for _, p := range []struct{ in, out string }{{"nps", "NPS "}, {"dn", "DN"}, {"cts", "CTS "}} {
+		if strings.HasPrefix(s, p.in) {
+			prefix, s = p.out, strings.TrimSpace(s[len(p.in):])
+			break
+		}
+	}
+	s = strings.TrimSpace(strings.TrimSuffix(strings.TrimSuffix(strings.TrimSuffix(s, "in"), "\""), "″"))
+	v, ok := parseSizeNumber(s)
+	if !ok {
+		return ""
+	}
+	return prefix + strconv.FormatFloat(v, 'f', -1, 64)
+}
+
+// parseSizeNumber reads "4", "1.5", "3/4", "1-1/2" or "1 1/2".
+func parseSizeNumber(s string) (float64, bool) {
+	whole, frac := s, ""
+	if i := strings.IndexAny(s, "- "); i > 0 {
+		whole, frac = s[:i], strings.TrimSpace(s[i+1:])
+	} else if strings.Contains(s, "/") {
+		whole, frac = "0", s
+	}
+	w, err := strconv.ParseFloat(whole, 64)
+	if err != nil || w < 0 || w > 1e4 {
+		return 0, false
+	}
+	if frac == "" {
+		return w, true
+	}
+	n, d, ok := strings.Cut(frac, "/")
+	nv, err1 := strconv.ParseFloat(n, 64)
+	dv, err2 := strconv.ParseFloat(d, 64)
+	if !ok || err1 != nil || err2 != nil || dv <= 0 || nv < 0 {
+		return 0, false
+	}
+	return w + nv/dv, true
+}
+
+// ExampleCostRows is the labelled example cost model: for each material, size "any", a
+// convex cost per metre of 18 + 0.5·t + 0.004·t² (t in mm) at each thickness given.
+// Invented numbers to show how the table works, never prices: every row is marked
+// Example, and every result priced with them says so.
+func ExampleCostRows(materials []string, thicknessesMM func(slug string) []float64) []CostRow {
+	var out []CostRow
+	for _, m := range materials {
+		for _, t := range thicknessesMM(m) {
+			out = append(out, CostRow{Material: m, NominalSize: AnySize, ThicknessMM: t,
+				CostPerM: round(18+0.5*t+0.004*t*t, 2), Example: true})
+		}
+	}
+	return out
 }

@@ -15,7 +15,7 @@ type criterion struct {
 	label string
 	dst   **float64
 	meets func(tMM float64) (bool, error)
-	unmet string // why nothing meets it, in words
+	unmet func() string // why nothing meets it, in words (only worded when needed)
 }
 
 // candidates are the thicknesses the sized layer may take, ascending.
@@ -27,7 +27,7 @@ func (a *analyser) candidates() []float64 {
 		c = slices.Clone(l.in.ThicknessesMM)
 	case l.outerMaterial != nil && len(l.outerMaterial.ThicknessesMM) > 0:
 		c = slices.Clone(l.outerMaterial.ThicknessesMM)
-		l.assume("candidate thicknesses: the series of %s", l.outerMaterial.Name)
+		l.assumeText("candidate thicknesses: the series of " + l.outerMaterial.Name)
 	default:
 		c = catalog.ThicknessSeriesInch()
 		l.assume("candidate thicknesses: ½ in steps (no material series for the sized layer)")
@@ -60,10 +60,10 @@ func (a *analyser) size() error {
 		}
 		if !found {
 			o.Sizing.Unmet = append(o.Sizing.Unmet, c.key)
-			l.warn("%s: %s", c.label, c.unmet)
+			l.warn("%s: %s", c.label, c.unmet())
 			continue
 		}
-		*c.dst = ptr(t)
+		*c.dst = a.num(t)
 	}
 	if err := a.energyCode(cands); err != nil {
 		return err
@@ -121,15 +121,19 @@ func (a *analyser) criteria() []criterion {
 				r, err := a.solve(t, l.opC, set.air)
 				return hottest(r) <= k.maxSurfaceC, err
 			},
-			unmet: fmt.Sprintf("no available thickness keeps the surface at or below %.0f °C; consider a guard or a different jacket", k.maxSurfaceC)})
+			unmet: func() string {
+				return fmt.Sprintf("no available thickness keeps the surface at or below %.0f °C; consider a guard or a different jacket", k.maxSurfaceC)
+			}})
 	}
 	if k.condensation {
 		set := l.condensation
 		dp, _ := calc.DewPoint(set.air.TempC, *set.rh)
-		msg := "no available thickness keeps the surface above the dew point plus margin"
-		if *set.rh > 88 {
-			msg = fmt.Sprintf("at %.0f %% relative humidity the air is close to saturation: no practical thickness prevents condensation; "+
-				"control the humidity, or accept and manage condensation", *set.rh)
+		msg := func() string {
+			if *set.rh > 88 {
+				return fmt.Sprintf("at %.0f %% relative humidity the air is close to saturation: no practical thickness prevents condensation; "+
+					"control the humidity, or accept and manage condensation", *set.rh)
+			}
+			return "no available thickness keeps the surface above the dew point plus margin"
 		}
 		out = append(out, criterion{key: "condensation", label: "condensation control", dst: &s.CondensationMM,
 			meets: func(t float64) (bool, error) {
@@ -150,7 +154,9 @@ func (a *analyser) criteria() []criterion {
 				}
 				return math.Abs(q) <= *k.maxHeatFlow, err
 			},
-			unmet: fmt.Sprintf("no available thickness keeps the heat flow at or below %s", fmtNum(*k.maxHeatFlow))})
+			unmet: func() string {
+				return fmt.Sprintf("no available thickness keeps the heat flow at or below %s", fmtNum(*k.maxHeatFlow))
+			}})
 	}
 	if k.maxTempChange != nil {
 		out = append(out, criterion{key: "max_temp_change", label: "maximum temperature change", dst: &s.MaxTempChangeMM,
@@ -158,7 +164,9 @@ func (a *analyser) criteria() []criterion {
 				outC, err := a.outlet(t)
 				return math.Abs(l.opC-outC) <= *k.maxTempChange, err
 			},
-			unmet: fmt.Sprintf("no available thickness keeps the temperature change within %s K; raise the flow or shorten the run", fmtNum(*k.maxTempChange))})
+			unmet: func() string {
+				return fmt.Sprintf("no available thickness keeps the temperature change within %s K; raise the flow or shorten the run", fmtNum(*k.maxTempChange))
+			}})
 	}
 	if k.freezeHours != nil && a.freezeApplies() {
 		out = append(out, criterion{key: "freeze", label: "freeze protection", dst: &s.FreezeMM,
@@ -169,7 +177,9 @@ func (a *analyser) criteria() []criterion {
 				}
 				return h0 >= *k.freezeHours, err
 			},
-			unmet: fmt.Sprintf("no available thickness holds the water above freezing for %s h: heat tracing is needed", fmtNum(*k.freezeHours))})
+			unmet: func() string {
+				return fmt.Sprintf("no available thickness holds the water above freezing for %s h: heat tracing is needed", fmtNum(*k.freezeHours))
+			}})
 	}
 	return out
 }
@@ -190,17 +200,17 @@ func (a *analyser) energyCode(cands []float64) error {
 	o.EnergyCode = out
 	if !required || col < 0 {
 		out.Row = "no requirement (between the cooling and heating ranges)"
-		o.Sizing.EnergyCodeMM = ptr(0.0)
+		o.Sizing.EnergyCodeMM = a.num(0.0)
 		return nil
 	}
-	out.Row = fmt.Sprintf("%s %s °F", row.Service, row.Label)
+	out.Row = row.Service + " " + row.Label + " °F"
 	tableMM := row.ThicknessIn[col] * 25.4
-	out.TableThicknessMM = ptr(round(tableMM, 2))
+	out.TableThicknessMM = a.num(round(tableMM, 2))
 	out.KRangeWmK = []float64{round(row.KMin*btuInToSI, 5), round(row.KMax*btuInToSI, 5)}
 	meanC := (row.MeanRatingF - 32) * 5 / 9
 	outer := l.base.Layers[len(l.base.Layers)-1]
 	kSI, _ := outer.K.At(meanC)
-	out.KAtMeanWmK = ptr(round(kSI, 5))
+	out.KAtMeanWmK = a.num(round(kSI, 5))
 	kBtu := kSI / btuInToSI
 	corrected := tableMM
 	if kBtu < row.KMin || kBtu > row.KMax {
@@ -210,24 +220,25 @@ func (a *analyser) energyCode(cands []float64) error {
 			return fmt.Errorf("energy-code correction: %w", err)
 		}
 		corrected = c * 1000
-		l.assume("energy code: k %.3f Btu·in/h·ft²·°F at %.0f °F lies outside the row's %.2f–%.2f, so the table thickness is corrected "+
-			"by T = r[(1 + t/r)^(K/k) − 1] with k = %.2f (the %s end)", kBtu, row.MeanRatingF, row.KMin, row.KMax, ref, t.RefEnd)
+		l.assumeText("energy code: k " + fmtF(kBtu, 3) + " Btu·in/h·ft²·°F at " + fmtF(row.MeanRatingF, 0) + " °F lies outside the row's " +
+			fmtF(row.KMin, 2) + "–" + fmtF(row.KMax, 2) + ", so the table thickness is corrected " +
+			"by T = r[(1 + t/r)^(K/k) − 1] with k = " + fmtF(ref, 2) + " (the " + t.RefEnd + " end)")
 	}
 	if len(l.base.Layers) > 1 {
 		l.assume("energy code: the total insulation thickness is compared, with the outermost layer's conductivity")
 	}
-	out.CorrectedMM = ptr(round(corrected, 2))
+	out.CorrectedMM = a.num(round(corrected, 2))
 	out.Pass = o.InsulationMM >= corrected-0.005
 	inner := o.InsulationMM - outer.Thickness*1000/l.installed[len(l.installed)-1]
 	need := corrected - inner
 	for _, c := range cands {
 		if c >= need-0.005 {
-			o.Sizing.EnergyCodeMM = ptr(c)
+			o.Sizing.EnergyCodeMM = a.num(c)
 			break
 		}
 	}
 	if need <= 0 {
-		o.Sizing.EnergyCodeMM = ptr(0.0)
+		o.Sizing.EnergyCodeMM = a.num(0.0)
 	}
 	if o.Sizing.EnergyCodeMM == nil {
 		o.Sizing.Unmet = append(o.Sizing.Unmet, "energy_code")
@@ -253,15 +264,17 @@ func (a *analyser) governing() {
 	if l.crit.economic {
 		list = append(list, cand{"economic", s.EconomicMM})
 	}
-	for _, c := range list {
-		if c.t != nil && (s.GoverningThicknessMM == nil || *c.t > *s.GoverningThicknessMM) {
-			s.Governing = ptr(c.key)
-			s.GoverningThicknessMM = ptr(*c.t)
+	best := -1
+	for i, c := range list {
+		if c.t != nil && (best < 0 || *c.t > *list[best].t) {
+			best = i
 		}
 	}
-	if s.GoverningThicknessMM == nil {
+	if best < 0 {
 		return
 	}
+	s.Governing = ptr(list[best].key)
+	s.GoverningThicknessMM = a.num(*list[best].t)
 	n := len(l.base.Layers)
 	for i := 0; i < n-1; i++ {
 		s.LayersProposed = append(s.LayersProposed, LayerPlan{Material: l.layerMaterials[i], ThicknessMM: round(l.base.Layers[i].Thickness*1000, 2)})
@@ -302,7 +315,7 @@ func (a *analyser) heatTrace() error {
 	if err != nil {
 		return err
 	}
-	o.HeatTraceWPerM = ptr(round(r.HeatFlowPerM*k.heatTraceFactor, 3))
+	o.HeatTraceWPerM = a.num(round(r.HeatFlowPerM*k.heatTraceFactor, 3))
 	l.assume("heat tracing holds %s °C at the freeze conditions with the insulation as specified, times a safety factor %s (our default 1.2)",
 		fmtNum(k.maintainC), fmtNum(k.heatTraceFactor))
 	return nil

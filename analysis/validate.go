@@ -3,6 +3,7 @@ package analysis
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"lagwright/calc"
@@ -78,11 +79,33 @@ type criteria struct {
 }
 
 func (l *line) assume(format string, args ...any) {
-	l.assumptions = append(l.assumptions, fmt.Sprintf(format, args...))
+	l.assumptions = append(l.assumptions, sprintf(format, args...))
 }
 
 func (l *line) warn(format string, args ...any) {
-	l.warnings = append(l.warnings, fmt.Sprintf(format, args...))
+	l.warnings = append(l.warnings, sprintf(format, args...))
+}
+
+// assumeText adds an assumption already in words (not a format: '%' stays as it is).
+func (l *line) assumeText(s string) {
+	l.assumptions = append(l.assumptions, s)
+}
+
+// sprintf is fmt.Sprintf, skipping fmt for a fixed sentence (no verbs, no arguments).
+func sprintf(format string, args ...any) string {
+	if len(args) == 0 && strings.IndexByte(format, '%') < 0 {
+		return format
+	}
+	return fmt.Sprintf(format, args...)
+}
+
+// fmtF formats v as fmt's %.<prec>f does, through strconv (fmt itself for Inf and NaN,
+// whose spelling differs).
+func fmtF(v float64, prec int) string {
+	if math.IsInf(v, 0) || math.IsNaN(v) {
+		return fmt.Sprintf("%.*f", prec, v)
+	}
+	return strconv.FormatFloat(v, 'f', prec, 64)
 }
 
 // rangeCheck adds an error when a given value lies outside [lo, hi].
@@ -108,7 +131,7 @@ func positiveCheck(c *errs, field string, v *float64, hi float64, unit string) {
 }
 
 func fmtNum(v float64) string {
-	return strings.TrimSuffix(strings.TrimRight(fmt.Sprintf("%.6f", v), "0"), ".")
+	return strings.TrimSuffix(strings.TrimRight(fmtF(v, 6), "0"), ".")
 }
 
 func orDefault(p *float64, d float64) float64 {
@@ -158,10 +181,13 @@ func resolveGeometry(l *line, c *errs) {
 		c.add("facing", `must be "up" or "down"`)
 	}
 	if in.Geometry != "pipe" {
-		for field, given := range map[string]bool{"pipe_od_mm": in.PipeODmm != nil, "pipe_size": in.PipeSize != "",
-			"pipe_schedule": in.PipeSchedule != "", "pipe_wall_mm": in.PipeWallMM != nil} {
-			if given {
-				c.add(field, "applies only to pipe geometry")
+		for _, f := range [...]struct {
+			field string
+			given bool
+		}{{"pipe_od_mm", in.PipeODmm != nil}, {"pipe_size", in.PipeSize != ""},
+			{"pipe_schedule", in.PipeSchedule != ""}, {"pipe_wall_mm", in.PipeWallMM != nil}} {
+			if f.given {
+				c.add(f.field, "applies only to pipe geometry")
 			}
 		}
 	}
@@ -274,7 +300,7 @@ func resolvePipe(l *line, c *errs) {
 			if size.Kind == catalog.PipeKind("copper") {
 				sched = "type L"
 			}
-			l.assume("%s, %s wall (default) %.2f mm", size.Designation, sched, wall)
+			l.assumeText(size.Designation + ", " + sched + " wall (default) " + fmtF(wall, 2) + " mm")
 		}
 	case in.PipeODmm != nil:
 		rangeCheck(c, "pipe_od_mm", in.PipeODmm, 3, 3000, "mm")
@@ -303,7 +329,7 @@ func resolvePipe(l *line, c *errs) {
 		if l.pipe != nil && l.pipe.Kind == catalog.PipeKind("copper") {
 			slug = "copper"
 		}
-		l.assume("pipe material %s (default)", strings.ReplaceAll(slug, "_", " "))
+		l.assumeText("pipe material " + strings.ReplaceAll(slug, "_", " ") + " (default)")
 	}
 	pm, ok := catalog.PipeMaterialBySlug(slug)
 	if !ok {
@@ -394,7 +420,7 @@ func resolveConditions(l *line, c *errs) {
 	l.design = airSet{air: calc.Air{TempC: amb, SurroundingsC: orDefault(in.SurroundingsTempC, amb), WindMS: orDefault(in.WindMS, 0)},
 		rh: in.RelativeHumidityPct}
 	if in.SurroundingsTempC == nil {
-		l.assume("surroundings at the ambient temperature %s °C", fmtNum(amb))
+		l.assumeText("surroundings at the ambient temperature " + fmtNum(amb) + " °C")
 	}
 	if in.WindMS == nil {
 		l.assume("still air (wind 0 m/s) at design conditions")
@@ -407,9 +433,12 @@ func resolveConditions(l *line, c *errs) {
 	l.condensation = conditionSet(l, c, "condensation", cs.Condensation, true)
 	l.freeze = conditionSet(l, c, "freeze", cs.Freeze, false)
 	l.econ = conditionSet(l, c, "economics", cs.Economics, false)
-	for name, set := range map[string]*ConditionSet{"personnel": cs.Personnel, "condensation": cs.Condensation, "economics": cs.Economics} {
-		if set != nil && set.InitialTempC != nil {
-			c.add("conditions."+name+".initial_temp_c", "applies only to the freeze conditions")
+	for _, s := range [...]struct {
+		name string
+		set  *ConditionSet
+	}{{"personnel", cs.Personnel}, {"condensation", cs.Condensation}, {"economics", cs.Economics}} {
+		if s.set != nil && s.set.InitialTempC != nil {
+			c.add("conditions."+s.name+".initial_temp_c", "applies only to the freeze conditions")
 		}
 	}
 	if cs.Freeze != nil {
@@ -427,9 +456,9 @@ func conditionSet(l *line, c *errs, name string, set *ConditionSet, stillAir boo
 	}
 	if set == nil {
 		if stillAir {
-			l.assume("%s judged at the design conditions in still air (common practice)", name)
+			l.assumeText(name + " judged at the design conditions in still air (common practice)")
 		} else {
-			l.assume("%s judged at the design conditions", name)
+			l.assumeText(name + " judged at the design conditions")
 		}
 		return out
 	}
@@ -461,7 +490,7 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 		return
 	}
 	for i, li := range in.Layers {
-		p := fmt.Sprintf("layers[%d].", i)
+		p := "layers[" + strconv.Itoa(i) + "]."
 		if li.ThicknessMM == nil {
 			c.add(p+"thickness_mm", "is required")
 		} else {
@@ -588,7 +617,7 @@ func resolveSurface(l *line, r Resolver, c *errs) {
 		l.bare.Emittance = *in.BareEmittance
 	case in.Geometry == "pipe" && l.pipeMat.Slug != "":
 		l.bare.Emittance = l.pipeMat.BareEmittance
-		l.assume("bare emittance %s (%s)", fmtNum(l.pipeMat.BareEmittance), strings.ToLower(l.pipeMat.Name))
+		l.assumeText("bare emittance " + fmtNum(l.pipeMat.BareEmittance) + " (" + strings.ToLower(l.pipeMat.Name) + ")")
 	default:
 		l.bare.Emittance = 0.9
 		l.assume("bare emittance 0.9 (painted or oxidised sheet metal, common practice)")
@@ -754,12 +783,13 @@ func resolveEconomics(l *line, c *errs) {
 		c.add("economics.installed_cost_per_m", "must have at most %d entries", maxCandidates)
 	}
 	for i, cp := range e.InstalledCostPerM {
-		p := fmt.Sprintf("economics.installed_cost_per_m[%d].", i)
+		p := func() string { return "economics.installed_cost_per_m[" + strconv.Itoa(i) + "]." } // named on error only
 		if cp.ThicknessMM <= 0 || cp.ThicknessMM > maxThicknessMM {
-			c.add(p+"thickness_mm", "must be greater than 0 and at most %d mm", maxThicknessMM)
+			c.add(p()+"thickness_mm", "must be greater than 0 and at most %d mm", maxThicknessMM)
 		}
 		if cp.Cost < 0 || cp.Cost > 1e7 {
-			c.add(p+"cost", "must be between 0 and 10000000")
+			c.add(p()+"cost", "must be between 0 and 10000000")
 		}
 	}
+	checkCostPoints(e, c)
 }

@@ -31,18 +31,25 @@ func TestZZCount(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		a := &analyser{l: l, cache: map[solveKey]calc.Result{}}
+		a := &analyser{l: l}
 		if _, err := a.run(); err != nil {
 			t.Fatal(err)
 		}
 		ev := 0
 		var keys []string
+		all := map[solveKey]calc.Result{}
+		for _, e := range a.memo {
+			all[e.key] = e.res
+		}
 		for k, r := range a.cache {
+			all[k] = r
+		}
+		for k, r := range all {
 			ev += r.Evaluations
 			keys = append(keys, fmt.Sprintf("%+v ev=%d", k, r.Evaluations))
 		}
 		sort.Strings(keys)
-		fmt.Printf("%s: solves=%d evals=%d\n", filepath.Base(f), len(a.cache), ev)
+		fmt.Printf("%s: solves=%d evals=%d\n", filepath.Base(f), len(all), ev)
 		for _, k := range keys {
 			fmt.Println("   ", k)
 		}

@@ -37,20 +37,55 @@ type airProps struct {
 // dryAir returns dry-air properties at tC (°C). The fits are smooth and physical from
 // about −200 °C to 700 °C; callers warn when tC lies outside airMinC…airMaxC.
 func dryAir(tC float64) airProps {
+	p, _ := dryAirD(tC)
+	return p
+}
+
+// airSlopes are logarithmic temperature derivatives of dry-air properties, d(ln x)/dT
+// per K of film temperature, for the analytic slope of the surface heat flux.
+type airSlopes struct {
+	k, nu, pr, beta float64
+}
+
+// dryAirD returns dryAir(tC) and the logarithmic derivatives of k, ν, Pr and β with
+// respect to temperature, from the same fits differentiated exactly.
+func dryAirD(tC float64) (airProps, airSlopes) {
 	t := tC + kelvin
-	rho := airPressure / (airR * t)
-	mu := 1.716e-5 * (t / 273.15) * math.Sqrt(t/273.15) * 383.55 / (t + 110.4)
-	cp := airR * (3.5 + 0.79*einstein(3393.5/t) + 0.21*einstein(2273.6/t))
+	it := 1 / t
+	rho := airPressure / airR * it
+	tr := t / 273.15
+	is := 1 / (t + 110.4)
+	mu := 1.716e-5 * tr * math.Sqrt(tr) * 383.55 * is
+	x1, x2 := 3393.5*it, 2273.6*it
+	e1, xde1 := einsteinD(x1)
+	e2, xde2 := einsteinD(x2)
+	cp := airR * (3.5 + 0.79*e1 + 0.21*e2)
 	k := 1.2863778e-3 + 8.8128307e-5*t - 2.3148287e-8*t*t
-	return airProps{rho: rho, cp: cp, k: k, mu: mu, nu: mu / rho, pr: mu * cp / k, beta: 1 / t}
+	ik := 1 / k
+	// d ln μ/dT (Sutherland), dcp/dT (dE/dT = −(x/T)·dE/dx), d ln k/dT.
+	dlnMu := 1.5*it - is
+	dlnCp := -(0.79*xde1 + 0.21*xde2) / (3.5 + 0.79*e1 + 0.21*e2) * it
+	dlnK := (8.8128307e-5 - 2*2.3148287e-8*t) * ik
+	nu := mu * t * (airR / airPressure) // μ/ρ
+	return airProps{rho: rho, cp: cp, k: k, mu: mu, nu: nu, pr: mu * cp * ik, beta: it},
+		airSlopes{k: dlnK, nu: dlnMu + it, pr: dlnMu + dlnCp - dlnK, beta: -it}
 }
 
 // einstein is the heat capacity of one harmonic vibrational mode in units of R,
 // x²eˣ/(eˣ − 1)² with x = θv/T.
 func einstein(x float64) float64 {
+	e, _ := einsteinD(x)
+	return e
+}
+
+// einsteinD returns einstein(x) and x times its derivative with respect to x,
+// x·dE/dx = E·(2 − x(1 + e⁻ˣ)/(1 − e⁻ˣ)).
+func einsteinD(x float64) (float64, float64) {
 	if x > 700 {
-		return 0
+		return 0, 0
 	}
 	e := math.Exp(-x) // x²eˣ/(eˣ − 1)² = x²e⁻ˣ/(1 − e⁻ˣ)²
-	return x * x * e / ((1 - e) * (1 - e))
+	id := 1 / (1 - e)
+	v := x * x * e * id * id
+	return v, v * (2 - x*(1+e)*id)
 }

@@ -19,20 +19,38 @@ type pathLayer struct {
 // path is one heat path from the fluid to the air: an optional inside film and pipe wall
 // (fixed conductances), the insulation layers, and the outer surface.
 type path struct {
-	fixedG []float64   // conductances W/K per path unit, inner to outer (film, wall)
-	layers []pathLayer // inner to outer
-	area   float64     // outer surface per path unit (m²/m, or 1 per m²)
+	area   float64 // outer surface per path unit (m²/m, or 1 per m²)
 	surf   surface
-	states []LayerState // scratch: layer states of the last march
+	states []LayerState // layer states of the last march; becomes the result's Layers
+
+	// Conductances W/K per path unit, inner to outer (film, wall), and the insulation
+	// layers, inner to outer: fixed arrays, so that a path on the stack lays out a system
+	// without heap allocations (System.Validate bounds the layers by maxLayers).
+	g      [2]float64
+	ng     int
+	layer  [maxLayers]pathLayer
+	nLayer int
 }
+
+// init empties the path for n insulation layers.
+func (p *path) init(n int) {
+	p.ng, p.nLayer = 0, 0
+	p.states = make([]LayerState, n)
+}
+
+func (p *path) addG(g float64)       { p.g[p.ng] = g; p.ng++ }
+func (p *path) addLayer(l pathLayer) { p.layer[p.nLayer] = l; p.nLayer++ }
+func (p *path) fixedG() []float64    { return p.g[:p.ng] }
+func (p *path) layers() []pathLayer  { return p.layer[:p.nLayer] }
 
 // march sets the layer states for surface temperature ts and heat flow q (per path unit),
 // working from the surface inward, and returns the fluid-side temperature, the
 // temperature under the insulation, and d(fluid-side temperature)/d(ts) given dq = dq/dts.
 func (p *path) march(ts, q, dq float64) (tin, under, dtin float64, err error) {
 	t, dt := ts, 1.0
-	for i := len(p.layers) - 1; i >= 0; i-- {
-		l := &p.layers[i]
+	layers, fixedG := p.layers(), p.fixedG()
+	for i := len(layers) - 1; i >= 0; i-- {
+		l := &layers[i]
 		ti, k, dk, beyond, err := layerInner(l, t, q)
 		if err != nil {
 			return 0, 0, 0, err
@@ -47,9 +65,9 @@ func (p *path) march(ts, q, dq float64) (tin, under, dtin float64, err error) {
 		t = ti
 	}
 	under = t
-	for i := len(p.fixedG) - 1; i >= 0; i-- {
-		t += q / p.fixedG[i]
-		dt += dq / p.fixedG[i]
+	for i := len(fixedG) - 1; i >= 0; i-- {
+		t += q / fixedG[i]
+		dt += dq / fixedG[i]
 	}
 	if !finite(t) || !finite(dt) {
 		return 0, 0, 0, errors.New("calc: conduction march produced a non-finite temperature")

@@ -35,8 +35,9 @@ func solveDuct(sys System, fluidC float64, air Air) (Result, error) {
 	}
 	res := Result{OuterAreaPerM: 2 * (wo + ho), Faces: make([]Face, 0, len(faces))}
 	worst := -1.0
+	var p path
 	for _, f := range faces {
-		p := buildFace(sys, f.inner, f.kind, wo, ho)
+		p.buildFace(sys, f.inner, f.kind, wo, ho)
 		pr, err := p.solve(fluidC, air)
 		if err != nil {
 			return Result{}, err
@@ -47,7 +48,7 @@ func solveDuct(sys System, fluidC float64, air Air) (Result, error) {
 			Name: f.name, SurfaceC: pr.ts, HeatFlowPerM: pr.q, HeatFlux: pr.q / p.area,
 			HConv: pr.sf.hConv, HRad: pr.sf.hRad, Layers: pr.layers,
 		})
-		res.Warnings = append(res.Warnings, p.warnings(sys, pr, air, f.name+" face: ")...)
+		res.Warnings = append(res.Warnings, p.warnings(sys, pr, air, f.name)...)
 		if d := math.Abs(pr.ts - air.TempC); d > worst {
 			worst = d
 			res.SurfaceC, res.PipeSurfaceC, res.Layers = pr.ts, pr.under, slices.Clone(pr.layers)
@@ -59,14 +60,14 @@ func solveDuct(sys System, fluidC float64, air Air) (Result, error) {
 }
 
 // buildFace lays out one duct face of inner width w0 (per metre of duct).
-func buildFace(sys System, w0 float64, kind surfKind, wo, ho float64) *path {
-	p := &path{states: make([]LayerState, len(sys.Layers))}
+func (p *path) buildFace(sys System, w0 float64, kind surfKind, wo, ho float64) {
+	p.init(len(sys.Layers))
 	if sys.InnerCoeff > 0 {
-		p.fixedG = append(p.fixedG, sys.InnerCoeff*w0)
+		p.addG(sys.InnerCoeff * w0)
 	}
 	w := w0
 	for _, l := range sys.Layers {
-		p.layers = append(p.layers, pathLayer{s: (w + l.Thickness) / l.Thickness, curve: l.K})
+		p.addLayer(pathLayer{s: (w + l.Thickness) / l.Thickness, curve: l.K})
 		w += 2 * l.Thickness
 	}
 	p.area = w
@@ -76,5 +77,4 @@ func buildFace(sys System, w0 float64, kind surfKind, wo, ho float64) *path {
 	} else {
 		p.surf.l = wo / 2
 	}
-	return p
 }

@@ -127,12 +127,13 @@ func Economics(b EconBasis, bareHeatFlowPerM float64, cands []EconCandidate) (ro
 	upv := UPVStar(b.DiscountRate, b.EscalationRate, b.LifeYears)
 	kwh := func(q float64) float64 { return math.Abs(q) * b.LengthM * b.HoursPerYear / 1000 / b.Conversion }
 	bareCost := kwh(bareHeatFlowPerM) * b.PricePerKWh
+	years := make([]float64, 0, 2*len(cands)) // the paybacks' storage, one allocation
 	payback := func(extraCost, saving float64) *float64 {
 		if !(saving > 0) {
 			return nil
 		}
-		y := math.Max(0, extraCost/saving) // cheaper and saving: pays back at once
-		return &y
+		years = append(years, math.Max(0, extraCost/saving)) // cheaper and saving: pays back at once
+		return &years[len(years)-1]
 	}
 	rows = make([]EconRow, len(cands))
 	economic = -1

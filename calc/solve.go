@@ -10,7 +10,7 @@ const (
 	solveTolK    = 1e-7 // K: |fluid-side temperature − fluid temperature| at convergence
 	solveTolTs   = 1e-6 // K: width of the surface-temperature bracket that ends the search
 	solveMaxEval = 100  // residual evaluations per path
-	fdStepK      = 1e-3 // K: finite-difference step for d(surface flux)/dTs
+	guessPasses  = 2    // linearised passes of the starting guess (see guess)
 )
 
 // Solve computes the steady heat balance of sys carrying a fluid at fluidC (°C) in the
@@ -28,7 +28,8 @@ func Solve(sys System, fluidC float64, air Air) (Result, error) {
 	if sys.Shape == Duct {
 		return solveDuct(sys, fluidC, air)
 	}
-	p := buildPath(sys)
+	var p path
+	p.build(sys)
 	pr, err := p.solve(fluidC, air)
 	if err != nil {
 		return Result{}, err
@@ -54,22 +55,22 @@ func Solve(sys System, fluidC float64, air Air) (Result, error) {
 	return res, nil
 }
 
-// buildPath lays out a pipe or flat system as one heat path.
-func buildPath(sys System) *path {
-	p := &path{states: make([]LayerState, len(sys.Layers))}
+// build lays out a pipe or flat system as one heat path.
+func (p *path) build(sys System) {
+	p.init(len(sys.Layers))
 	p.surf = surface{emit: sys.Emittance, fixed: sys.FixedCoeff}
 	if sys.Shape.IsPipe() {
 		r := sys.PipeOD / 2
 		ri := r - sys.PipeWall // inner wetted radius (the OD when the wall is not modelled)
 		if sys.InnerCoeff > 0 {
-			p.fixedG = append(p.fixedG, sys.InnerCoeff*2*math.Pi*ri)
+			p.addG(sys.InnerCoeff * 2 * math.Pi * ri)
 		}
 		if sys.PipeWall > 0 {
-			p.fixedG = append(p.fixedG, 2*math.Pi*sys.WallK/math.Log(r/ri))
+			p.addG(2 * math.Pi * sys.WallK / math.Log(r/ri))
 		}
 		for _, l := range sys.Layers {
 			r2 := r + l.Thickness
-			p.layers = append(p.layers, pathLayer{s: 2 * math.Pi / math.Log(r2/r), curve: l.K})
+			p.addLayer(pathLayer{s: 2 * math.Pi / math.Log(r2/r), curve: l.K})
 			r = r2
 		}
 		p.area = 2 * math.Pi * r
@@ -77,14 +78,14 @@ func buildPath(sys System) *path {
 		if sys.Shape == PipeVertical {
 			p.surf.kind, p.surf.l = surfCylV, sys.Height
 		}
-		return p
+		return
 	}
 	// Flat surfaces, per m²; the pipe wall does not apply.
 	if sys.InnerCoeff > 0 {
-		p.fixedG = append(p.fixedG, sys.InnerCoeff)
+		p.addG(sys.InnerCoeff)
 	}
 	for _, l := range sys.Layers {
-		p.layers = append(p.layers, pathLayer{s: 1 / l.Thickness, curve: l.K})
+		p.addLayer(pathLayer{s: 1 / l.Thickness, curve: l.K})
 	}
 	p.area = 1
 	switch sys.Shape {
@@ -98,7 +99,6 @@ func buildPath(sys System) *path {
 		p.surf.l = sys.PlateLength * sys.PlateWidth / (2 * (sys.PlateLength + sys.PlateWidth))
 		p.surf.lWind = sys.PlateLength
 	}
-	return p
 }
 
 // pathResult is the solved state of one heat path.
@@ -149,23 +149,20 @@ func (p *path) settleJump(res *pathResult, fluid float64, air Air, qLo, qHi floa
 func (p *path) solve(fluid float64, air Air) (res pathResult, err error) {
 	eval := func(ts float64) (r, dr float64, err error) {
 		res.evals++
-		sf := p.surf.exchange(ts, air)
-		dq := p.surf.fixed
-		if dq == 0 {
-			dq = (p.surf.exchange(ts+fdStepK, air).flux - sf.flux) / fdStepK
-		}
+		sf := p.surf.exchange(ts, air) // with its analytic slope d(flux)/dts
 		q := sf.flux * p.area
-		tin, under, dtin, err := p.march(ts, q, dq*p.area)
+		tin, under, dtin, err := p.march(ts, q, sf.slope*p.area)
 		if err != nil {
 			return 0, 0, err
 		}
 		res.ts, res.under, res.q, res.sf = ts, under, q, sf
 		return tin - fluid, dtin, nil
 	}
-	// Layer states of the last evaluation, which is the reported one.
-	defer func() { res.layers = append([]LayerState(nil), p.states...) }()
+	// Layer states of the last evaluation, which is the reported one: p.states is this
+	// path's own slice, written by every march and handed over with the result.
+	defer func() { res.layers = p.states }()
 
-	if len(p.layers) == 0 && len(p.fixedG) == 0 { // bare surface at the fluid temperature
+	if p.nLayer == 0 && p.ng == 0 { // bare surface at the fluid temperature
 		sf := p.surf.exchange(fluid, air)
 		res.ts, res.under, res.q, res.sf = fluid, fluid, sf.flux*p.area, sf
 		if !finite(res.q) {
@@ -210,39 +207,37 @@ func (p *path) solve(fluid float64, air Air) (res pathResult, err error) {
 	return res, fmt.Errorf("calc: surface temperature did not converge in %d evaluations", solveMaxEval)
 }
 
-// guess estimates the surface temperature without residual evaluations: a few passes of
-// the linearised series-resistance balance, with the surface coefficient from the
-// correlations and each layer's k at its mean from the previous pass.
+// guess estimates the surface temperature with cheap passes of a linearised balance: the
+// conduction as series resistances with each layer's k at its mean from the previous pass,
+// the surface exchange linearised at the current estimate (its flux and analytic slope),
+// so that each pass is a Newton step on the surface side.
 func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 	ts := air.TempC + 0.1*(fluid-air.TempC)
 	for i := range p.states {
 		p.states[i].MeanC = (fluid + ts) / 2
 	}
-	for range 3 {
-		h, env := p.surf.fixed, air.TempC
-		if h == 0 {
-			hc, _ := p.surf.hConv(ts, air)
-			hc = math.Max(hc, 0.5)
-			t1, t2 := ts+kelvin, air.SurroundingsC+kelvin
-			hr := p.surf.emit * StefanBoltzmann * (t1*t1 + t2*t2) * (t1 + t2)
-			h, env = hc+hr, (hc*air.TempC+hr*air.SurroundingsC)/(hc+hr)
-		}
-		rs := 1 / (h * p.area)
-		rin := 0.0
-		for _, g := range p.fixedG {
+	for range guessPasses {
+		rin := 0.0 // per path unit
+		for _, g := range p.fixedG() {
 			rin += 1 / g
 		}
-		for i, l := range p.layers {
+		for i, l := range p.layers() {
 			k, _ := l.curve.At(p.states[i].MeanC)
 			rin += 1 / (l.s * k)
 		}
-		q := (fluid - env) / (rin + rs)
-		ts = env + q*rs
+		// area·(F + S·(x − ts)) = (fluid − x)/rin, F and S the surface flux and slope at ts.
+		sf := p.surf.exchange(ts, air)
+		x := (fluid/rin - p.area*(sf.flux-sf.slope*ts)) / (1/rin + p.area*sf.slope)
+		if !(x > lo && x < hi) {
+			x = (lo + hi) / 2
+		}
+		q := (fluid - x) / rin
+		ts = x
 		t := fluid
-		for _, g := range p.fixedG {
+		for _, g := range p.fixedG() {
 			t -= q / g
 		}
-		for i, l := range p.layers {
+		for i, l := range p.layers() {
 			k, _ := l.curve.At(p.states[i].MeanC)
 			t2 := t - q/(l.s*k)
 			p.states[i].MeanC = (t + t2) / 2

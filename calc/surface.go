@@ -29,55 +29,84 @@ type surface struct {
 // surfState is the outer-surface exchange at one surface temperature.
 type surfState struct {
 	flux        float64 // W/m², positive from the surface to the environment
+	slope       float64 // d(flux)/d(ts), W/m²·K, analytic
 	hConv, hRad float64 // W/m²·K
 	note        string  // correlation used outside its range, "" if none
 }
 
-// exchange returns the heat flux from the surface at ts (°C) to the air and surroundings.
-// Cold surfaces use |ΔT| in Gr and Ra, and horizontal plates swap their hot/cold-side
-// correlations.
+// exchange returns the heat flux from the surface at ts (°C) to the air and surroundings,
+// and its slope with respect to ts. Cold surfaces use |ΔT| in Gr and Ra, and horizontal
+// plates swap their hot/cold-side correlations.
 func (s *surface) exchange(ts float64, air Air) surfState {
 	dt := ts - air.TempC
 	if s.fixed > 0 {
-		return surfState{flux: s.fixed * dt, hConv: s.fixed}
+		return surfState{flux: s.fixed * dt, slope: s.fixed, hConv: s.fixed}
 	}
-	hc, note := s.hConv(ts, air)
+	hc, g, note := s.hConvD(ts, air)
 	qr := RadiationFlux(s.emit, ts, air.SurroundingsC)
-	return surfState{
+	t := ts + kelvin
+	st := surfState{
 		flux:  hc*dt + qr,
+		slope: hc + g + 4*s.emit*StefanBoltzmann*t*t*t,
 		hConv: hc,
-		hRad:  RadiationCoeff(s.emit, ts, air.TempC, air.SurroundingsC),
 		note:  note,
 	}
+	if dt > 1e-9 || dt < -1e-9 { // RadiationCoeff, from the flux already at hand
+		st.hRad = qr / dt
+	} else {
+		st.hRad = RadiationCoeff(s.emit, ts, air.TempC, air.SurroundingsC)
+	}
+	return st
 }
 
 // hConv is the convective coefficient at surface temperature ts: natural convection,
 // forced convection when there is wind, mixed as (h_n³ + h_f³)^(1/3).
 func (s *surface) hConv(ts float64, air Air) (float64, string) {
+	h, _, note := s.hConvD(ts, air)
+	return h, note
+}
+
+// hConvD returns hConv and g = (ts − Ta)·dh/dts, the analytic derivative of the
+// coefficient (film properties included) times ΔT, so that d(h·ΔT)/dts = h + g stays
+// finite at ΔT = 0. Quantities named g… are ΔT·d(…)/dts; for logarithms, ΔT·d ln(…)/dts.
+func (s *surface) hConvD(ts float64, air Air) (h, g float64, note string) {
+	dT := ts - air.TempC
 	film := (ts + air.TempC) / 2
-	p := dryAir(film)
-	dt := math.Abs(ts - air.TempC)
+	p, sl := dryAirD(film)
+	dt := math.Abs(dT)
 	hot := ts > air.TempC
 	grPerL3 := gravity * p.beta * dt / (p.nu * p.nu) // Gr = grPerL3 · L³
+	half := dT / 2                                   // dT_film/dts = 1/2
+	gK, gPr := half*sl.k, half*sl.pr
+	gGr := 1 + half*(sl.beta-2*sl.nu) // ΔT·d ln|ΔT|/dts = 1
+	gRa := gGr + gPr
 
-	var hn float64
+	var hn, gn float64
 	var ra float64
-	var note string
 	switch s.kind {
 	case surfCylH:
 		ra = grPerL3 * s.d * s.d * s.d * p.pr
-		hn = NuCylinderNatural(ra, p.pr) * p.k / s.d
+		t, w := churchillChu(ra, p.pr, 0.559)
+		n := 0.60 + t
+		hn = n * n * p.k / s.d
+		gn = hn * (2*t*(gRa+w*gPr)/(6*n) + gK)
 		if ra > 0 && (ra < 1e-5 || ra > 1e12) {
 			note = fmt.Sprintf("natural convection Ra_D %.2g outside the Churchill–Chu horizontal-cylinder range 1e-5…1e12; extrapolated", ra)
 		}
 	case surfCylV, surfPlateV:
 		gr := grPerL3 * s.l * s.l * s.l
 		ra = gr * p.pr
-		nu := NuVerticalPlateNatural(ra, p.pr)
+		t, w := churchillChu(ra, p.pr, 0.492)
+		n := 0.825 + t
+		nu := n * n
+		gNu := nu * 2 * t * (gRa + w*gPr) / (6 * n)
 		if s.kind == surfCylV && gr > 0 && SlenderCylinderApplies(gr, s.l, s.d) {
-			nu *= SlenderCylinderFactor(gr, p.pr, s.l, s.d)
+			f, gf := slenderFactorD(gr, p.pr, s.l, s.d, gGr, gPr)
+			gNu = gNu*f + nu*gf
+			nu *= f
 		}
 		hn = nu * p.k / s.l
+		gn = hn*gK + gNu*p.k/s.l
 		if ra > 1e12 {
 			note = fmt.Sprintf("natural convection Ra_L %.2g above the Churchill–Chu vertical-plate range (1e12); extrapolated", ra)
 		}
@@ -86,25 +115,38 @@ func (s *surface) hConv(ts float64, air Air) (float64, string) {
 		up := s.kind == surfPlateUp
 		if up == hot { // hot face up or cold face down
 			hn = NuPlateUpNatural(ra) * p.k / s.l
+			if ra < 1e7 {
+				gn = hn * (gRa/4 + gK)
+			} else {
+				gn = hn * (gRa/3 + gK)
+			}
 			if ra > 1e11 {
 				note = fmt.Sprintf("natural convection Ra %.2g above the horizontal-plate range (1e11); extrapolated", ra)
 			}
 		} else {
 			hn = NuPlateDownNatural(ra) * p.k / s.l
+			gn = hn * (gRa/4 + gK)
 			if ra > 1e10 {
 				note = fmt.Sprintf("natural convection Ra %.2g above the horizontal-plate range (1e10); extrapolated", ra)
 			}
 		}
 	}
 	if air.WindMS <= 0 {
-		return hn, note
+		return hn, gn, note
 	}
 	re := air.WindMS * s.lWind / p.nu
-	var hf float64
+	gRe := -half * sl.nu
+	var nuF, gNuF float64
 	if s.kind == surfCylH || s.kind == surfCylV {
-		hf = NuCylinderCrossFlow(re, p.pr) * p.k / s.lWind
+		nuF, gNuF = crossFlowD(re, p.pr, gRe, gPr)
 	} else {
-		hf = NuFlatPlateForced(re, p.pr) * p.k / s.lWind
+		nuF, gNuF = flatPlateForcedD(re, p.pr, gRe, gPr)
 	}
-	return MixedConvection(hn, hf), note
+	hf := nuF * p.k / s.lWind
+	gf := hf*gK + gNuF*p.k/s.lWind
+	h = MixedConvection(hn, hf)
+	if h > 0 {
+		g = (hn*hn*gn + hf*hf*gf) / (h * h)
+	}
+	return h, g, note
 }

@@ -7,12 +7,19 @@ import (
 )
 
 // warnings lists the notes on a solved path: conductivity extended beyond its data, faces
-// outside service limits, correlations or air properties used beyond their range. prefix
-// names the duct face ("" otherwise).
-func (p *path) warnings(sys System, pr pathResult, air Air, prefix string) []string {
+// outside service limits, correlations or air properties used beyond their range. face
+// names the duct face ("" otherwise); messages then start "<face> face: ".
+func (p *path) warnings(sys System, pr pathResult, air Air, face string) []string {
 	var w []string
+	prefix := ""
+	if face != "" && p.anyWarning(sys, pr, air) {
+		prefix = face + " face: "
+	}
 	for i, st := range pr.layers {
 		l := sys.Layers[i]
+		if !st.Beyond && (!l.HasLimits || (math.Max(st.InnerC, st.OuterC) <= l.MaxC && math.Min(st.InnerC, st.OuterC) >= l.MinC)) {
+			continue // nothing to say: skip naming the layer
+		}
 		name := layerName(i, l)
 		if st.Beyond {
 			w = append(w, fmt.Sprintf("%sk of %s extrapolated beyond its data (mean %s °C)", prefix, name, fmtC(st.MeanC)))
@@ -39,6 +46,21 @@ func (p *path) warnings(sys System, pr pathResult, air Air, prefix string) []str
 		}
 	}
 	return w
+}
+
+// anyWarning reports whether warnings has anything to say (it mirrors its tests).
+func (p *path) anyWarning(sys System, pr pathResult, air Air) bool {
+	for i, st := range pr.layers {
+		l := sys.Layers[i]
+		if st.Beyond || (l.HasLimits && (math.Max(st.InnerC, st.OuterC) > l.MaxC || math.Min(st.InnerC, st.OuterC) < l.MinC)) {
+			return true
+		}
+	}
+	if pr.jump {
+		return true
+	}
+	film := (pr.ts + air.TempC) / 2
+	return p.surf.fixed == 0 && (pr.sf.note != "" || film < airMinC || film > airMaxC)
 }
 
 // criticalRadius warns when an insulated pipe's outer radius r (m) is below the critical

@@ -59,3 +59,49 @@ func BenchmarkZZSqrt(b *testing.B) {
 		x += 1e-9
 	}
 }
+
+func BenchmarkZZDenPow(b *testing.B) {
+	pr := 0.71
+	for b.Loop() {
+		zzSink += math.Pow(1+math.Pow(0.559/pr, 9.0/16), 8.0/27)
+		pr += 1e-12
+	}
+}
+func BenchmarkZZDenSqrtExpLog(b *testing.B) {
+	pr := 0.71
+	for b.Loop() {
+		x := 0.559 / pr
+		s := math.Sqrt(x)
+		u := s * math.Sqrt(math.Sqrt(math.Sqrt(s)))
+		zzSink += math.Exp(8.0 / 27 * math.Log(1+u))
+		pr += 1e-12
+	}
+}
+func BenchmarkZZDenExpLog(b *testing.B) {
+	pr := 0.71
+	for b.Loop() {
+		u := math.Exp(9.0 / 16 * math.Log(0.559/pr))
+		zzSink += math.Exp(8.0 / 27 * math.Log(1+u))
+		pr += 1e-12
+	}
+}
+func BenchmarkZZDenCbrt(b *testing.B) {
+	pr := 0.71
+	for b.Loop() {
+		x := 0.559 / pr
+		s := math.Sqrt(x)
+		u := s * math.Sqrt(math.Sqrt(math.Sqrt(s)))
+		c := math.Cbrt(math.Cbrt(math.Cbrt(1 + u)))
+		c2 := c * c
+		c4 := c2 * c2
+		zzSink += c4 * c4
+		pr += 1e-12
+	}
+}
+func BenchmarkZZRa6(b *testing.B) {
+	x := 1.2345e7
+	for b.Loop() {
+		zzSink += math.Sqrt(math.Cbrt(x))
+		x += 1e-3
+	}
+}

@@ -91,21 +91,22 @@ func (s *Store) SeedCatalog(ctx context.Context) error {
 			th, _ := json.Marshal(m.ThicknessesMM)
 			_, err := tx.Exec(ctx, `
 				INSERT INTO materials (slug, name, category, spec, k_points, min_temp_c, max_temp_c, thicknesses_mm,
-				                       max_layer_mm, compressible, source, builtin)
-				VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, true)
+				                       max_layer_mm, compressible, compression_pct, source, builtin)
+				VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, true)
 				ON CONFLICT (slug) DO UPDATE SET
 				    name = EXCLUDED.name, category = EXCLUDED.category, spec = EXCLUDED.spec,
 				    k_points = EXCLUDED.k_points, min_temp_c = EXCLUDED.min_temp_c, max_temp_c = EXCLUDED.max_temp_c,
 				    thicknesses_mm = EXCLUDED.thicknesses_mm, max_layer_mm = EXCLUDED.max_layer_mm,
-				    compressible = EXCLUDED.compressible, source = EXCLUDED.source,
-				    version = materials.version + 1, updated_at = now()
+				    compressible = EXCLUDED.compressible, compression_pct = EXCLUDED.compression_pct,
+				    source = EXCLUDED.source, version = materials.version + 1, updated_at = now()
 				WHERE materials.builtin AND (materials.name, materials.category, materials.spec, materials.k_points,
 				       materials.min_temp_c, materials.max_temp_c, materials.thicknesses_mm, materials.max_layer_mm,
-				       materials.compressible, materials.source)
+				       materials.compressible, materials.compression_pct, materials.source)
 				    IS DISTINCT FROM (EXCLUDED.name, EXCLUDED.category, EXCLUDED.spec, EXCLUDED.k_points,
 				       EXCLUDED.min_temp_c, EXCLUDED.max_temp_c, EXCLUDED.thicknesses_mm, EXCLUDED.max_layer_mm,
-				       EXCLUDED.compressible, EXCLUDED.source)`,
-				m.Slug, m.Name, m.Category, m.Spec, encodeKPoints(m.KPoints), m.MinC, m.MaxC, th, m.MaxLayerMM, m.Compressible, m.Source)
+				       EXCLUDED.compressible, EXCLUDED.compression_pct, EXCLUDED.source)`,
+				m.Slug, m.Name, m.Category, m.Spec, encodeKPoints(m.KPoints), m.MinC, m.MaxC, th, m.MaxLayerMM,
+				m.Compressible, m.CompressionPct, m.Source)
 			if err != nil {
 				return fmt.Errorf("store: seed material %s: %w", m.Slug, err)
 			}
@@ -140,7 +141,7 @@ func (s *Store) Library(ctx context.Context) (*Library, error) {
 	lib := &Library{materials: map[string]libMaterial{}, jackets: map[string]libJacket{}}
 	rows, err := s.pool.Query(ctx, `
 		SELECT slug, name, category, spec, k_points, coalesce(min_temp_c, -273), coalesce(max_temp_c, 1500),
-		       thicknesses_mm, coalesce(max_layer_mm, 0), compressible, source, builtin, version
+		       thicknesses_mm, coalesce(max_layer_mm, 0), compressible, compression_pct, source, builtin, version
 		FROM materials`)
 	if err != nil {
 		return nil, fmt.Errorf("store: library: %w", err)
@@ -150,7 +151,7 @@ func (s *Store) Library(ctx context.Context) (*Library, error) {
 		var kp, th []byte
 		var lm libMaterial
 		if err := rows.Scan(&m.Slug, &m.Name, &m.Category, &m.Spec, &kp, &m.MinC, &m.MaxC, &th, &m.MaxLayerMM,
-			&m.Compressible, &m.Source, &lm.builtin, &lm.version); err != nil {
+			&m.Compressible, &m.CompressionPct, &m.Source, &lm.builtin, &lm.version); err != nil {
 			rows.Close()
 			return nil, fmt.Errorf("store: library: %w", err)
 		}
@@ -162,15 +163,11 @@ func (s *Store) Library(ctx context.Context) (*Library, error) {
 			rows.Close()
 			return nil, fmt.Errorf("store: material %s: thicknesses: %w", m.Slug, err)
 		}
-		if m.Compressible {
-			if c, ok := catalog.MaterialBySlug(m.Slug); ok {
-				m.CompressionPct = c.CompressionPct
-				m.Form = c.Form
-			} else {
-				m.CompressionPct = 25 // common practice for duct wrap
-			}
-		} else if c, ok := catalog.MaterialBySlug(m.Slug); ok {
-			m.Form = c.Form
+		if !m.Compressible {
+			m.CompressionPct = 0
+		}
+		if c, ok := catalog.MaterialBySlug(m.Slug); ok && lm.builtin {
+			m.Form = c.Form // the form (pipe section, board …) is display data, not stored
 		}
 		lm.m = m
 		lib.materials[m.Slug] = lm

@@ -3,6 +3,7 @@
 //	lagwright [serve]              run the web app (the default)
 //	lagwright migrate up|down|version
 //	lagwright calc < line.json     analyse one line (JSON in, JSON out; no database)
+//	lagwright demo                 create the demo project
 //	lagwright version
 //
 // Configuration comes from flags, then the environment: LAGWRIGHT_ADDR,
@@ -55,6 +56,8 @@ func run(ctx context.Context, args []string, getenv func(string) string, stdin i
 		return migrateCmd(ctx, args, getenv, stdout, stderr)
 	case "calc":
 		return calcCmd(args, stdin, stdout)
+	case "demo":
+		return demoCmd(ctx, args, getenv, stdout, stderr)
 	case "version":
 		fmt.Fprintln(stdout, "lagwright", version())
 		return nil
@@ -72,6 +75,7 @@ Commands:
   serve                     run the web app (default)
   migrate up|down|version   apply, revert, or show the database schema
   calc                      analyse one line: JSON on stdin, JSON on stdout (exit 2 on bad input)
+  demo                      create the demo project (an invented brewery expansion)
   version                   print the version
 
 Flags and environment (flags win):

@@ -1,0 +1,318 @@
+package handlers
+
+import (
+	"cmp"
+	"fmt"
+	"net/http"
+	"slices"
+	"strconv"
+	"strings"
+
+	"github.com/a-h/templ"
+
+	"lagwright/analysis"
+	"lagwright/store"
+	"lagwright/units"
+	"lagwright/web"
+)
+
+// cmpSide is one material's comparison: the line's full answer (criteria, economic
+// thickness over the priced thicknesses) and a row for every candidate thickness.
+type cmpSide struct {
+	slug, name string
+	out        *analysis.Output
+	rows       []analysis.EconomicsRow
+	priced     bool
+}
+
+// compareSide analyses a line's own input with the project's settings twice: as the
+// project prices it (the priced rows, the economic thickness, every criterion), and
+// over every candidate of the sized material without prices (heat flow, surface
+// temperature, energy and its cost for each), then merges the two by thickness.
+func cmpCompareSide(set analysis.ProjectSettings, l store.Line, own analysis.Input, fit analysis.Fittings,
+	lib *store.Library) (cmpSide, error) {
+	var side cmpSide
+	eff := set.Effective(l.Location, own, fit)
+	out, err := analysis.Analyse(eff, lib)
+	if err != nil {
+		return side, err
+	}
+	side.out = out
+	thick := slices.Clone(out.Sizing.Candidates)
+	priced := map[float64]analysis.EconomicsRow{}
+	for _, r := range out.Economics {
+		if r.InstalledCost != nil {
+			priced[r.ThicknessMM] = r
+			side.priced = true
+			if !slices.Contains(thick, r.ThicknessMM) {
+				thick = append(thick, r.ThicknessMM)
+			}
+		}
+	}
+	slices.Sort(thick)
+	if len(thick) > 40 {
+		thick = thick[:40]
+	}
+	all := eff
+	all.ThicknessesMM = thick
+	if eff.Economics != nil {
+		e := *eff.Economics
+		e.InstalledCostPerM, e.InstalledCostSource = nil, ""
+		all.Economics = &e
+	} else {
+		zero := 0.0
+		all.Economics = &analysis.Economics{EnergyPricePerKWh: &zero}
+	}
+	cr := analysis.Criteria{}
+	all.Criteria = &cr // criteria are judged on the first pass
+	every, err := analysis.Analyse(all, lib)
+	if err != nil {
+		return side, err
+	}
+	for _, r := range every.Economics {
+		if p, ok := priced[r.ThicknessMM]; ok {
+			r = p
+		} else if eff.Economics == nil {
+			r.AnnualCost = 0
+		}
+		side.rows = append(side.rows, r)
+	}
+	if m, ok := lib.Material(cmpOuterMaterial(own)); ok {
+		side.slug, side.name = m.Slug, m.Name
+	} else {
+		side.slug, side.name = "custom", "Outer layer (conductivity given)"
+	}
+	return side, nil
+}
+
+func cmpOuterMaterial(in analysis.Input) string {
+	if n := len(in.Layers); n > 0 {
+		return in.Layers[n-1].Material
+	}
+	return ""
+}
+
+// withMaterial is the line's input with its outer layer of another material (its
+// thickness kept); the candidates become that material's series and costs its rows.
+func cmpWithMaterial(own analysis.Input, slug string) analysis.Input {
+	in := own
+	in.Layers = slices.Clone(own.Layers)
+	n := len(in.Layers)
+	in.Layers[n-1] = analysis.LayerInput{Material: slug, ThicknessMM: own.Layers[n-1].ThicknessMM}
+	in.ThicknessesMM = nil
+	if own.Economics != nil {
+		e := *own.Economics
+		e.InstalledCostPerM, e.InstalledCostSource = nil, ""
+		in.Economics = &e
+	}
+	return in
+}
+
+// comparePage shows GET /projects/{id}/lines/{line}/compare[?alt=slug].
+func (s *Server) comparePage(w http.ResponseWriter, r *http.Request) {
+	c, err := s.cmpLoadLine(r)
+	if err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	if len(c.Own.Layers) == 0 {
+		s.fail(w, r, Invalid(FieldError{Field: "layers", Message: "this line is bare: add an insulation layer on the line page to compare thicknesses"}))
+		return
+	}
+	lib, err := s.store.Library(r.Context())
+	if err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	own, err := cmpCompareSide(c.Set, c.Line, c.Own, c.Fit, lib)
+	if err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	sides := []cmpSide{own}
+	alt := r.URL.Query().Get("alt")
+	if alt != "" && alt != cmpOuterMaterial(c.Own) {
+		if _, ok := lib.Material(alt); !ok {
+			s.fail(w, r, Invalid(FieldError{Field: "alt", Message: "no such material in the library"}))
+			return
+		}
+		side, err := cmpCompareSide(c.Set, c.Line, cmpWithMaterial(c.Own, alt), c.Fit, lib)
+		if err != nil {
+			s.fail(w, r, err)
+			return
+		}
+		sides = append(sides, side)
+	}
+	v := s.compareView(c, sides, lib, alt)
+	w.Header().Set("Cache-Control", "no-store")
+	templ.Handler(web.Compare(v)).ServeHTTP(w, r)
+}
+
+// criterionMins lists each criterion's thinnest thickness (sized layer) by label.
+func cmpCriterionMins(sz analysis.Sizing) []struct {
+	label string
+	mm    *float64
+} {
+	return []struct {
+		label string
+		mm    *float64
+	}{
+		{"personnel protection", sz.PersonnelProtectionMM}, {"condensation", sz.CondensationMM},
+		{"maximum heat flow", sz.MaxHeatFlowMM}, {"maximum temperature change", sz.MaxTempChangeMM},
+		{"freeze protection", sz.FreezeMM}, {"energy code", sz.EnergyCodeMM},
+	}
+}
+
+func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt string) web.CompareView {
+	sys := cmpSystem(c.Project)
+	pid, lid := c.Project.ID, c.Line.ID
+	main := sides[0].out
+	flat := main.Geometry == "flat"
+	qQty := units.HeatFlowPerLength
+	if flat {
+		qQty = units.HeatFlux
+	}
+	runLen := 0.0
+	if main.EquivalentLengthM != nil {
+		runLen = *main.EquivalentLengthM
+	}
+	v := web.CompareView{
+		Assets:       s.assets.urls,
+		Title:        "Compare thicknesses: " + cmp.Or(c.Line.Tag, "line "+strconv.FormatInt(lid, 10)),
+		LineURL:      cmpLineURL(pid, lid),
+		ProjectURL:   cmpProjectURL(pid),
+		CostsURL:     cmpCostsURL(pid),
+		EconomicsURL: cmpEconomicsURL(pid),
+		ThicknessURL: cmpLineURL(pid, lid) + "/thickness",
+		Version:      c.Line.Version,
+		Head: web.CompareHead{
+			Thickness: "Thickness, " + units.Label(units.Length, sys),
+			HeatFlow:  "Heat flow, " + units.Label(qQty, sys),
+			HeatRun:   "Heat flow per run, " + units.Label(units.HeatFlow, sys),
+			HasRun:    runLen > 0 && !flat,
+			Surface:   "Surface, " + units.Label(units.Temp, sys),
+			Energy:    "Energy, kWh/year",
+			Cost:      "Energy cost/year",
+			CO2:       "CO2, kg/year",
+			Installed: "Installed cost",
+		},
+	}
+	if sys == units.US {
+		v.Head.Energy2 = "Energy, MMBtu/year"
+	}
+	intro := []string{c.Line.Service, fmt.Sprintf("operating %s", units.FormatUnit(units.Temp, sys, main.OperatingTempC))}
+	if main.PipeODmm != nil {
+		intro = append(intro, "pipe OD "+units.FormatUnit(units.Length, sys, *main.PipeODmm))
+	}
+	if runLen > 0 {
+		intro = append(intro, "run "+units.FormatUnit(units.LongLength, sys, runLen)+" with fittings")
+	}
+	econ := main.ConditionsUsed.Economics
+	intro = append(intro, "economics at "+units.FormatUnit(units.Temp, sys, econ.AmbientTempC)+" ambient, wind "+units.FormatUnit(units.Speed, sys, econ.WindMS))
+	v.Intro = strings.Join(slices.DeleteFunc(intro, func(s string) bool { return s == "" }), " · ")
+
+	eff := c.Set.Effective(c.Line.Location, c.Own, c.Fit)
+	if eff.Economics == nil {
+		v.Notices = append(v.Notices, "The project has no energy price: set one in the project's settings to see energy costs, paybacks and the economic thickness. Energy is shown at the default plant efficiency or COP.")
+	}
+	if !sides[0].priced {
+		v.Notices = append(v.Notices, "No installed costs for this material and size: add them to the project's cost table (Installed costs) for paybacks, life-cycle cost and the economic thickness.")
+	}
+	if slices.Contains(main.Assumptions, analysis.ExampleCostsAssumption) {
+		v.Notices = append(v.Notices, "Installed costs are the labelled example, not prices: replace them in the cost table.")
+	}
+
+	for _, m := range lib.MaterialChoices() {
+		if m.Slug == sides[0].slug {
+			continue
+		}
+		v.AltOptions = append(v.AltOptions, web.CompareOption{Value: m.Slug, Label: m.Name, Selected: m.Slug == alt})
+	}
+
+	thick := func(mm float64) string { return units.FormatUnit(units.Length, sys, mm) }
+	for _, m := range cmpCriterionMins(main.Sizing) {
+		if m.mm != nil {
+			v.Criteria = append(v.Criteria, web.CompareCriterion{Label: m.label, Value: cmpThickOrBare(thick, *m.mm)})
+		}
+	}
+	for _, k := range main.Sizing.Unmet {
+		v.Criteria = append(v.Criteria, web.CompareCriterion{Label: strings.ReplaceAll(k, "_", " "), Value: "no available thickness meets it"})
+	}
+	if e := main.Sizing.EconomicMM; e != nil {
+		v.Criteria = append(v.Criteria, web.CompareCriterion{Label: "economic (least life-cycle cost)", Value: cmpThickOrBare(thick, *e), Economic: true})
+	}
+	if g := main.Sizing.Governing; g != nil && main.Sizing.GoverningThicknessMM != nil {
+		v.Criteria = append(v.Criteria, web.CompareCriterion{Label: "governing", Value: strings.ReplaceAll(*g, "_", " ") + ", " + cmpThickOrBare(thick, *main.Sizing.GoverningThicknessMM)})
+	}
+
+	outerNow := 0.0
+	if n := len(c.Own.Layers); n > 0 && c.Own.Layers[n-1].ThicknessMM != nil {
+		outerNow = *c.Own.Layers[n-1].ThicknessMM
+	}
+	for i, sd := range sides {
+		vs := web.CompareSide{Material: sd.name, Slug: sd.slug, CanUse: i == 0, Economic: "not known (no installed costs)"}
+		if i > 0 {
+			vs.Material = sd.name + " (second material)"
+		}
+		if e := sd.out.Sizing.EconomicMM; e != nil {
+			vs.Economic = cmpThickOrBare(thick, *e)
+		}
+		if !sd.priced {
+			vs.PricesNote = "no installed costs match this material and size"
+		}
+		mins := cmpCriterionMins(sd.out.Sizing)
+		for _, r := range sd.rows {
+			row := web.CompareRow{
+				ThicknessMM: strconv.FormatFloat(r.ThicknessMM, 'f', -1, 64),
+				Thickness:   units.Format(units.Length, sys, r.ThicknessMM),
+				HeatFlow:    units.Format(qQty, sys, r.HeatFlowWPerM),
+				HeatRun:     cmpGroup(units.Format(units.HeatFlow, sys, r.HeatFlowWPerM*runLen)),
+				Surface:     units.Format(units.Temp, sys, r.SurfaceTempC),
+				Energy:      cmpNumber(r.AnnualKWh),
+				Energy2:     units.Format(units.Energy, units.US, r.AnnualKWh),
+				Cost:        cmpMoney(r.AnnualCost),
+				CO2:         cmpNumber(r.CO2Kg),
+				Installed:   cmpMoneyPtr(r.InstalledCost),
+				Simple:      cmpYears(r.SimplePaybackYears),
+				Incremental: cmpYears(r.IncrementalPaybackYears),
+				NPV:         cmpMoneyPtr(r.NPV),
+				LCC:         cmpMoneyPtr(r.LifeCycleCost),
+				Current:     i == 0 && cmpAbs(r.ThicknessMM-outerNow) < 0.005,
+			}
+			if eff.Economics == nil {
+				row.Cost = "—"
+			}
+			if r.InstalledCost == nil {
+				row.Simple, row.Incremental = "—", "—"
+			}
+			if e := sd.out.Sizing.EconomicMM; e != nil && *e == r.ThicknessMM {
+				row.Economic = true
+			}
+			for _, m := range mins {
+				if m.mm != nil && *m.mm == r.ThicknessMM {
+					row.Minimums = append(row.Minimums, m.label)
+				}
+			}
+			vs.Rows = append(vs.Rows, row)
+		}
+		v.Sides = append(v.Sides, vs)
+	}
+	v.Charts = cmpCharts(sides, sys, qQty)
+	v.Warnings = main.Warnings
+	v.Assumptions = main.Assumptions
+	return v
+}
+
+func cmpThickOrBare(thick func(float64) string, mm float64) string {
+	if mm == 0 {
+		return "bare (no insulation needed)"
+	}
+	return thick(mm)
+}
+
+func cmpAbs(v float64) float64 {
+	if v < 0 {
+		return -v
+	}
+	return v
+}

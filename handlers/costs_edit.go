@@ -1,0 +1,54 @@
+package handlers
+
+import (
+	"net/http"
+	"slices"
+
+	"github.com/a-h/templ"
+
+	"lagwright/store"
+	"lagwright/units"
+	"lagwright/web"
+)
+
+// costsView builds the cost-table screen around rows as they are (stored or typed).
+func (s *Server) costsView(p store.Project, lib *store.Library, rows []web.CostRowView) web.CostsView {
+	sys := cmpSystem(p)
+	v := web.CostsView{
+		Assets:        s.assets.urls,
+		Title:         "Installed costs: " + p.Name,
+		ProjectURL:    cmpProjectURL(p.ID),
+		Action:        cmpCostsURL(p.ID),
+		ExampleAction: cmpCostsURL(p.ID) + "/example",
+		Version:       p.Version,
+		ThicknessUnit: units.Label(units.Length, sys),
+		CostUnit:      costUnit(sys),
+		Rows:          rows,
+	}
+	for range blankCostRows {
+		v.Rows = append(v.Rows, web.CostRowView{})
+	}
+	for _, m := range lib.MaterialChoices() {
+		v.Materials = append(v.Materials, web.CompareOption{Value: m.Slug, Label: m.Name})
+	}
+	v.HasExample = slices.ContainsFunc(rows, func(r web.CostRowView) bool { return r.Example })
+	return v
+}
+
+// costsEdit shows GET /projects/{id}/costs.
+func (s *Server) costsEdit(w http.ResponseWriter, r *http.Request) {
+	p, set, err := s.cmpProject(r)
+	if err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	lib, err := s.store.Library(r.Context())
+	if err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	v := s.costsView(p, lib, costRowsView(set.CostTable, cmpSystem(p)))
+	v.Saved = r.URL.Query().Get("saved") == "1"
+	w.Header().Set("Cache-Control", "no-store")
+	templ.Handler(web.Costs(v)).ServeHTTP(w, r)
+}

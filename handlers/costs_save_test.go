@@ -1,0 +1,92 @@
+package handlers
+
+import (
+	"context"
+	"fmt"
+	"net/url"
+	"strconv"
+	"strings"
+	"testing"
+
+	"lagwright/store/storetest"
+)
+
+func TestCostTable(t *testing.T) {
+	st := storetest.NewDB(t)
+	s, _ := newServer(t, st)
+	h := s.Routes()
+	p, _, set := cmpFixture(t, st, "us")
+	target := fmt.Sprintf("/projects/%d/costs", p.ID)
+	formHdr := map[string]string{"Content-Type": "application/x-www-form-urlencoded"}
+	ctx := context.Background()
+
+	rec := do(t, h, "GET", target, nil, nil)
+	if rec.Code != 200 || !strings.Contains(rec.Body.String(), "Cost per ft") || !strings.Contains(rec.Body.String(), "Thickness, in") {
+		t.Fatalf("GET costs = %d; US labels missing", rec.Code)
+	}
+
+	// A paste with one bad row: 422, every bad line named, nothing saved.
+	bad := url.Values{"version": {strconv.Itoa(p.Version)}, "rows": {"0"}, "paste": {"material\tsize\tthickness\tcost\n" +
+		cmpMF + "\tNPS 4\t2\t30.50\n" +
+		"unobtainium\tNPS 4\t2\t12\n" +
+		cmpMF + "\tNPS 4\t-1\tabc\n" +
+		cmpMF + ",4,2,31\n"}}
+	rec = do(t, h, "POST", target, strings.NewReader(bad.Encode()), formHdr)
+	if rec.Code != 422 {
+		t.Fatalf("bad paste = %d, want 422", rec.Code)
+	}
+	body := rec.Body.String()
+	for _, want := range []string{"line 3: material", "line 4: thickness", "line 4: cost", "line 5: thickness: repeats another row", "Nothing was saved"} {
+		if !strings.Contains(body, want) {
+			t.Errorf("422 page lacks %q", want)
+		}
+	}
+	if strings.Contains(body, "line 2:") {
+		t.Error("the good line 2 is reported as bad")
+	}
+	if got, _ := st.Project(ctx, p.ID); got.Version != p.Version {
+		t.Errorf("a refused paste saved the project (version %d → %d)", p.Version, got.Version)
+	}
+
+	// A good paste: per ft in US units is stored per metre; exact-size rows stored as typed.
+	good := url.Values{"version": {strconv.Itoa(p.Version)}, "rows": {"0"}, "paste": {cmpMF + "\tNPS 4\t2\t30.48\n" + cmpMF + ", any, 1-1/2, 10\n"}}
+	rec = do(t, h, "POST", target, strings.NewReader(good.Encode()), formHdr)
+	if rec.Code != 303 {
+		t.Fatalf("good paste = %d, want 303\n%s", rec.Code, rec.Body)
+	}
+	got, _ := st.Project(ctx, p.ID)
+	gs, _ := ProjectSettings(got)
+	if len(gs.CostTable) != 2 || gs.CostTable[0].ThicknessMM != 50.8 || gs.CostTable[0].CostPerM != 100 ||
+		gs.CostTable[1].NominalSize != "any" || gs.CostTable[1].ThicknessMM != 38.1 {
+		t.Errorf("saved table %+v", gs.CostTable)
+	}
+	if gs.Economics == nil || *gs.Economics.EnergyPricePerKWh != *set.Economics.EnergyPricePerKWh {
+		t.Error("saving the cost table lost the project's economics")
+	}
+	// A stale version: 409.
+	rec = do(t, h, "POST", target, strings.NewReader(good.Encode()), formHdr)
+	if rec.Code != 409 {
+		t.Errorf("stale version = %d, want 409", rec.Code)
+	}
+
+	// Example costs: labelled rows, and the compare page says so.
+	rec = do(t, h, "POST", target+"/example", strings.NewReader(url.Values{"version": {strconv.Itoa(got.Version)}}.Encode()), formHdr)
+	if rec.Code != 303 {
+		t.Fatalf("example = %d", rec.Code)
+	}
+	rec = do(t, h, "GET", target, nil, nil)
+	if !strings.Contains(rec.Body.String(), `data-testid="example-notice"`) || !strings.Contains(rec.Body.String(), "mark-example") {
+		t.Error("example rows are not labelled")
+	}
+	got, _ = st.Project(ctx, p.ID)
+	gs, _ = ProjectSettings(got)
+	examples := 0
+	for _, r := range gs.CostTable {
+		if r.Example {
+			examples++
+		}
+	}
+	if examples == 0 || examples != len(gs.CostTable)-2 { // two user rows; the user's "any 1-1/2" shadows one example row
+		t.Errorf("%d example rows of %d", examples, len(gs.CostTable))
+	}
+}

@@ -1,0 +1,237 @@
+package linelist
+
+import (
+	"fmt"
+	"strconv"
+	"strings"
+
+	"lagwright/analysis"
+	"lagwright/units"
+)
+
+// column is one column a line list may carry: its canonical name (snake_case, without
+// the unit), how a cell is read into a Row and written back, and, for columns with a
+// unit, the unit spellings accepted in the header.
+type column struct {
+	name  string
+	field string // the analysis path it fills ("" for the line's own fields)
+	kind  kind
+
+	// kind text: where the value lives.
+	text func(b *builder) *string
+	// textOut reads it back from a Row.
+	textOut func(r *Row) string
+
+	// kind qty: the quantity, the pointer it fills and reads, and the header units.
+	q     units.Quantity
+	num   func(b *builder) **float64
+	numIn func(in *analysis.Input) *float64
+	hdr   []headerUnit // accepted header units; the first SI one and the first US one are what Template writes
+
+	// kind count: the fitting count it fills.
+	count func(f *analysis.Fittings) *int
+}
+
+type kind int
+
+const (
+	kText  kind = iota // free text or a keyword
+	kQty               // a number with the unit given in the header
+	kCount             // a whole number (fittings)
+)
+
+// headerUnit is one spelling of a unit in a header: norm is the spelling after normUnit,
+// label the way Template writes it, parse the unit as package units spells it (or, for
+// quantities units lacks, factor: SI per header unit), and sys the system it belongs to.
+type headerUnit struct {
+	norm, label, parse string
+	factor             float64
+	sys                units.System
+}
+
+// The header units of each kind of quantity. Plain spellings only; normUnit folds case,
+// spaces, degree signs, dots and middle dots.
+var (
+	uLength = []headerUnit{{norm: "mm", label: "mm", parse: "mm", sys: units.SI}, {norm: "in", label: "in", parse: "in", sys: units.US},
+		{norm: "inch", label: "inch", parse: "in", sys: units.US}, {norm: `"`, label: `"`, parse: "in", sys: units.US}}
+	uRun  = []headerUnit{{norm: "m", label: "m", parse: "m", sys: units.SI}, {norm: "ft", label: "ft", parse: "ft", sys: units.US}}
+	uTemp = []headerUnit{{norm: "c", label: "°C", parse: "C", sys: units.SI}, {norm: "f", label: "°F", parse: "F", sys: units.US}}
+	uDiff = []headerUnit{{norm: "k", label: "K", parse: "K", sys: units.SI}, {norm: "f", label: "°F", parse: "F", sys: units.US},
+		{norm: "c", label: "°C", parse: "K", sys: units.SI}}
+	uPressure = []headerUnit{{norm: "kpag", label: "kPa g", parse: "kPa", sys: units.SI}, {norm: "psig", label: "psig", parse: "psi", sys: units.US},
+		{norm: "barg", label: "bar g", parse: "bar", sys: units.SI}}
+	uMassFlow = []headerUnit{{norm: "kg/s", label: "kg/s", parse: "kg/s", sys: units.SI}, {norm: "lb/h", label: "lb/h", parse: "lb/h", sys: units.US},
+		{norm: "kg/h", label: "kg/h", parse: "kg/h", sys: units.SI}}
+	uHeatFlow = []headerUnit{{norm: "w/m", label: "W/m", parse: "W/m", sys: units.SI}, {norm: "btu/hft", label: "Btu/h·ft", parse: "Btu/h·ft", sys: units.US}}
+	// Specific heat: package units has no such quantity; 1 Btu/lb·°F = 4186.8 J/kg·K
+	// exactly (Btu(IT), NIST SP 811 Appendix B).
+	uCp = []headerUnit{{norm: "j/kgk", label: "J/kg·K", factor: 1, sys: units.SI}, {norm: "btu/lbf", label: "Btu/lb·°F", factor: 4186.8, sys: units.US},
+		{norm: "kj/kgk", label: "kJ/kg·K", factor: 1000, sys: units.SI}}
+	uHours = []headerUnit{{norm: "h", label: "h", factor: 1, sys: units.SI}, {norm: "h", label: "h", factor: 1, sys: units.US}}
+)
+
+// unitNorm folds the spellings of a header unit: "°F", "degF", "F" → "f"; "kPa g",
+// "kPa(g)" → "kpag"; "Btu/h·ft", "Btu/hr-ft" → "btu/hft"; "J/kg·K" → "j/kgk".
+var unitNorm = strings.NewReplacer(" ", "", "°", "", "º", "", "·", "", "⋅", "", "*", "", ".", "", "(", "", ")", "", "-", "",
+	"″", `"`, "hr", "h", "deg", "", "lbm", "lb")
+
+func normUnit(s string) string { return unitNorm.Replace(strings.ToLower(strings.TrimSpace(s))) }
+
+// builder collects one row's cells before the Input is assembled.
+type builder struct {
+	row    Row
+	layers [maxLayers]analysis.LayerInput
+	flow   analysis.Flow
+	crit   analysis.Criteria
+}
+
+// maxLayers is the number of layer columns a line list has.
+const maxLayers = 3
+
+func text(name, field string, at func(b *builder) *string, out func(r *Row) string) column {
+	return column{name: name, field: field, kind: kText, text: at, textOut: out}
+}
+
+func qty(name, field string, q units.Quantity, hdr []headerUnit, at func(b *builder) **float64, in func(in *analysis.Input) *float64) column {
+	return column{name: name, field: field, kind: kQty, q: q, hdr: hdr, num: at, numIn: in}
+}
+
+func count(name string, at func(f *analysis.Fittings) *int) column {
+	return column{name: name, kind: kCount, count: at}
+}
+
+// columns is every column, in the order Template writes them.
+var columns = buildColumns()
+
+func buildColumns() []column {
+	cols := []column{
+		text("tag", "", func(b *builder) *string { return &b.row.Tag }, func(r *Row) string { return r.Tag }),
+		text("service", "", func(b *builder) *string { return &b.row.Service }, func(r *Row) string { return r.Service }),
+		text("location", "", func(b *builder) *string { return &b.row.Location }, func(r *Row) string { return r.Location }),
+		text("exposure", "", func(b *builder) *string { return &b.row.Exposure }, func(r *Row) string { return r.Exposure }),
+		text("geometry", "geometry", func(b *builder) *string { return &b.row.Input.Geometry }, func(r *Row) string { return r.Input.Geometry }),
+		text("orientation", "orientation", func(b *builder) *string { return &b.row.Input.Orientation }, func(r *Row) string { return r.Input.Orientation }),
+		text("pipe_size", "pipe_size", func(b *builder) *string { return &b.row.Input.PipeSize }, func(r *Row) string { return r.Input.PipeSize }),
+		text("pipe_schedule", "pipe_schedule", func(b *builder) *string { return &b.row.Input.PipeSchedule }, func(r *Row) string { return r.Input.PipeSchedule }),
+		qty("pipe_od", "pipe_od_mm", units.Length, uLength, func(b *builder) **float64 { return &b.row.Input.PipeODmm },
+			func(in *analysis.Input) *float64 { return in.PipeODmm }),
+		text("pipe_material", "pipe_material", func(b *builder) *string { return &b.row.Input.PipeMaterial }, func(r *Row) string { return r.Input.PipeMaterial }),
+		qty("duct_width", "duct_width_mm", units.Length, uLength, func(b *builder) **float64 { return &b.row.Input.DuctWidthMM },
+			func(in *analysis.Input) *float64 { return in.DuctWidthMM }),
+		qty("duct_height", "duct_height_mm", units.Length, uLength, func(b *builder) **float64 { return &b.row.Input.DuctHeightMM },
+			func(in *analysis.Input) *float64 { return in.DuctHeightMM }),
+		qty("length", "length_m", units.LongLength, uRun, func(b *builder) **float64 { return &b.row.Input.LengthM },
+			func(in *analysis.Input) *float64 { return in.LengthM }),
+		count("elbows", func(f *analysis.Fittings) *int { return &f.Elbows }),
+		count("tees", func(f *analysis.Fittings) *int { return &f.Tees }),
+		count("valves", func(f *analysis.Fittings) *int { return &f.Valves }),
+		count("flanges", func(f *analysis.Fittings) *int { return &f.Flanges }),
+		count("caps", func(f *analysis.Fittings) *int { return &f.Caps }),
+		text("fluid", "fluid", func(b *builder) *string { return &b.row.Input.Fluid }, func(r *Row) string { return r.Input.Fluid }),
+		qty("operating_temp", "operating_temp_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.row.Input.OperatingTempC },
+			func(in *analysis.Input) *float64 { return in.OperatingTempC }),
+		qty("steam_pressure", "steam_gauge_pressure_kpa", units.Pressure, uPressure,
+			func(b *builder) **float64 { return &b.row.Input.SteamGaugePressureKPa },
+			func(in *analysis.Input) *float64 { return in.SteamGaugePressureKPa }),
+		qty("mass_flow", "flow.mass_flow_kg_s", units.MassFlow, uMassFlow, func(b *builder) **float64 { return &b.flow.MassFlowKgS },
+			func(in *analysis.Input) *float64 {
+				if in.Flow == nil {
+					return nil
+				}
+				return in.Flow.MassFlowKgS
+			}),
+		qty("cp", "flow.cp_j_kgk", 0, uCp, func(b *builder) **float64 { return &b.flow.CpJkgK },
+			func(in *analysis.Input) *float64 {
+				if in.Flow == nil {
+					return nil
+				}
+				return in.Flow.CpJkgK
+			}),
+	}
+	for i := range maxLayers {
+		n := strconv.Itoa(i + 1)
+		p := fmt.Sprintf("layers[%d].", i)
+		cols = append(cols,
+			text("layer"+n+"_material", p+"material", func(b *builder) *string { return &b.layers[i].Material },
+				func(r *Row) string {
+					if i < len(r.Input.Layers) {
+						return r.Input.Layers[i].Material
+					}
+					return ""
+				}),
+			qty("layer"+n+"_thickness", p+"thickness_mm", units.Length, uLength, func(b *builder) **float64 { return &b.layers[i].ThicknessMM },
+				func(in *analysis.Input) *float64 {
+					if i < len(in.Layers) {
+						return in.Layers[i].ThicknessMM
+					}
+					return nil
+				}))
+	}
+	crit := func(in *analysis.Input) *analysis.Criteria {
+		if in.Criteria == nil {
+			return &analysis.Criteria{}
+		}
+		return in.Criteria
+	}
+	cols = append(cols,
+		text("jacket", "jacket", func(b *builder) *string { return &b.row.Input.Jacket }, func(r *Row) string { return r.Input.Jacket }),
+		qty("max_surface_temp", "criteria.max_surface_temp_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.crit.MaxSurfaceTempC },
+			func(in *analysis.Input) *float64 { return crit(in).MaxSurfaceTempC }),
+		qty("dew_margin", "criteria.dew_margin_k", units.TempDiff, uDiff, func(b *builder) **float64 { return &b.crit.DewMarginK },
+			func(in *analysis.Input) *float64 { return crit(in).DewMarginK }),
+		qty("max_heat_flow", "criteria.max_heat_flow_w_per_m", units.HeatFlowPerLength, uHeatFlow,
+			func(b *builder) **float64 { return &b.crit.MaxHeatFlowWPerM },
+			func(in *analysis.Input) *float64 { return crit(in).MaxHeatFlowWPerM }),
+		qty("max_temp_change", "criteria.max_temp_change_k", units.TempDiff, uDiff, func(b *builder) **float64 { return &b.crit.MaxTempChangeK },
+			func(in *analysis.Input) *float64 { return crit(in).MaxTempChangeK }),
+		qty("freeze_hours", "criteria.freeze_hours", 0, uHours, func(b *builder) **float64 { return &b.crit.FreezeHours },
+			func(in *analysis.Input) *float64 { return crit(in).FreezeHours }),
+		text("notes", "", func(b *builder) *string { return &b.row.Notes }, func(r *Row) string { return r.Notes }),
+	)
+	return cols
+}
+
+// byName finds a column by its canonical name.
+var byName = func() map[string]int {
+	m := make(map[string]int, len(columns))
+	for i, c := range columns {
+		m[c.name] = i
+	}
+	return m
+}()
+
+// Header returns the canonical header of every column in one system of units
+// ("length [m]" or "length [ft]"), in the order Template writes them.
+func Header(sys units.System) []string {
+	out := make([]string, len(columns))
+	for i, c := range columns {
+		out[i] = c.header(sys)
+	}
+	return out
+}
+
+// header writes a column's canonical header in sys.
+func (c column) header(sys units.System) string {
+	if c.kind != kQty {
+		return c.name
+	}
+	for _, u := range c.hdr {
+		if u.sys == sys {
+			return c.name + " [" + u.label + "]"
+		}
+	}
+	return c.name + " [" + c.hdr[0].label + "]"
+}
+
+// unitHelp lists the units a column accepts, for messages.
+func (c column) unitHelp() string {
+	var s []string
+	seen := map[string]bool{}
+	for _, u := range c.hdr {
+		if !seen[u.label] {
+			seen[u.label] = true
+			s = append(s, c.name+" ["+u.label+"]")
+		}
+	}
+	return strings.Join(s, " or ")
+}

@@ -1,0 +1,523 @@
+// Package schedule turns a stored project's lines and their analysis results into an
+// insulation schedule — one row per line, totals by material × size × thickness and by
+// jacket, a header with the project, design conditions, methods and cautions — and
+// writes it as CSV, XLSX and PDF. It also builds the calculation sheet of one line.
+//
+// The package knows nothing of the database: handlers pass plain data (Project, Line).
+// Rows are kept in SI (they are what an issued revision stores); the writers convert
+// them to the project's units through Table, rounding each value to the precision it
+// is shown with, and compute the shown totals from the shown values, so a total always
+// equals the sum of the rows above it.
+//
+// Quantities (our choices, stated in every export header and in the README):
+//   - insulated length = run length + the fittings' equivalent length (the project's
+//     fitting allowances, analysis.FittingAllowances);
+//   - jacket area = outer surface area per metre × insulated length × (1 + LapWaste)
+//     (flat surfaces: area × (1 + LapWaste)); LapWaste is 10 % for laps and waste;
+//   - insulation volume = installed cross-section × insulated length (pipes: the annulus
+//     between the pipe OD and the insulation OD; rectangular ducts: the outer rectangle
+//     less the duct; flat surfaces: area × thickness), without the lap allowance.
+package schedule
+
+import (
+	"math"
+	"slices"
+	"strings"
+	"time"
+
+	"lagwright/analysis"
+	"lagwright/calc"
+	"lagwright/units"
+)
+
+// LapWaste is the allowance added to jacket area for laps and waste (our choice: 10 %,
+// common practice for metal and PVC jacketing take-off).
+const LapWaste = 0.10
+
+// Project is what the schedule needs of a project.
+type Project struct {
+	ID       int64
+	Name     string
+	Client   string
+	Site     string
+	Units    units.System
+	Settings analysis.ProjectSettings
+}
+
+// Line is one stored line with its effective calculation input and its answer.
+type Line struct {
+	ID       int64
+	Tag      string
+	Service  string
+	Location string // "indoor" | "outdoor"
+	Exposure string // "exposed" | "concealed"
+	Notes    string
+	Input    analysis.Input // effective input (project conditions filled in)
+	Fittings analysis.Fittings
+	Output   *analysis.Output // nil when the line has errors
+	Errors   []string         // field errors that stopped the analysis
+}
+
+// Schedule is a whole schedule: header, rows and totals, all in SI. It is what an
+// issued revision stores (as JSON), so later edits never change it.
+type Schedule struct {
+	Header Header `json:"header"`
+	Rows   []Row  `json:"rows"`
+	Totals Totals `json:"totals"`
+}
+
+// Header is what every export shows above the rows.
+type Header struct {
+	ProjectID     int64                      `json:"project_id"`
+	Project       string                     `json:"project"`
+	Client        string                     `json:"client"`
+	Site          string                     `json:"site"`
+	Units         units.System               `json:"units"`
+	Revision      int                        `json:"revision"` // 0: draft, not issued
+	Date          time.Time                  `json:"date"`
+	Note          string                     `json:"note,omitempty"`
+	Indoor        Conditions                 `json:"indoor"`
+	Outdoor       Conditions                 `json:"outdoor"`
+	MethodVersion string                     `json:"method_version"`
+	Methods       []string                   `json:"methods"`
+	Cautions      []string                   `json:"cautions"`
+	LapWastePct   float64                    `json:"lap_waste_pct"`
+	Fittings      analysis.FittingAllowances `json:"fitting_allowances"`
+}
+
+// Conditions are the design conditions of one location.
+type Conditions struct {
+	AmbientC      float64  `json:"ambient_temp_c"`
+	SurroundingsC *float64 `json:"surroundings_temp_c,omitempty"`
+	WindMS        float64  `json:"wind_m_s"`
+	RHPct         *float64 `json:"relative_humidity_pct,omitempty"`
+}
+
+// Row is one line of the schedule, in SI. Pointers are nil where a value does not apply
+// or could not be computed.
+type Row struct {
+	LineID          int64             `json:"line_id"`
+	Tag             string            `json:"tag"`
+	Service         string            `json:"service"`
+	Purpose         string            `json:"purpose"`
+	Location        string            `json:"location"`
+	Exposure        string            `json:"exposure"`
+	Geometry        string            `json:"geometry"`
+	Size            string            `json:"size"`             // "NPS 4", "CTS 1", "OD 60.3 mm", "800 × 400 mm", "flat"
+	SizeSI          bool              `json:"size_in_si"`       // Size was written from SI dimensions (rewritten for US display)
+	PipeODmm        *float64          `json:"pipe_od_mm"`       // pipes
+	DuctWmm         *float64          `json:"duct_width_mm"`    // ducts
+	DuctHmm         *float64          `json:"duct_height_mm"`   // ducts
+	LengthM         *float64          `json:"length_m"`         // pipes and ducts
+	AreaM2          *float64          `json:"area_m2"`          // flat surfaces
+	Fittings        analysis.Fittings `json:"fittings"`         // counts
+	FittingsM       float64           `json:"fittings_equiv_m"` // their equivalent insulated length
+	InsulatedM      *float64          `json:"insulated_length_m"`
+	Material        string            `json:"material"`
+	Spec            string            `json:"spec"`
+	Layers          []float64         `json:"layers_mm"`              // installed thickness of each layer, inner to outer
+	ThicknessMM     float64           `json:"thickness_mm"`           // nominal
+	InstalledMM     *float64          `json:"installed_thickness_mm"` // compressed blankets only
+	Jacket          string            `json:"jacket"`
+	VapourRetarder  bool              `json:"vapour_retarder"`
+	OuterDiameterMM *float64          `json:"outer_diameter_mm"`
+	JacketAreaM2    *float64          `json:"jacket_area_m2"`
+	VolumeM3        *float64          `json:"volume_m3"`
+	HeatFlowW       *float64          `json:"heat_flow_w"` // per run; negative: heat gained
+	HeatFlowWPerM   *float64          `json:"heat_flow_w_per_m"`
+	SurfaceC        *float64          `json:"surface_temp_c"`
+	Governing       string            `json:"governing"`   // criterion that governs, in words
+	EnergyCode      string            `json:"energy_code"` // "pass" | "fail" | "not required" | "" (not checked)
+	HeatTraceWPerM  *float64          `json:"heat_trace_w_per_m"`
+	Notes           string            `json:"notes"`
+	Error           bool              `json:"error,omitempty"` // the line could not be analysed
+}
+
+// Purposes of insulation, in the words of the schedule.
+const (
+	PurposeHeat      = "heat conservation"
+	PurposeCold      = "cold service"
+	PurposePersonnel = "personnel protection"
+	PurposeFreeze    = "freeze protection"
+)
+
+// Resolver finds material and jacket names (analysis.Resolver: the store's library).
+type Resolver = analysis.Resolver
+
+// Build makes the schedule of a project's lines. rev is the revision number (0 for a
+// draft) and date the date it carries.
+func Build(p Project, lines []Line, r Resolver, rev int, date time.Time) Schedule {
+	s := Schedule{Header: header(p, rev, date), Rows: make([]Row, 0, len(lines))}
+	cautions := slices.Clone(s.Header.Cautions)
+	for _, l := range lines {
+		s.Rows = append(s.Rows, buildRow(l, r))
+		if l.Output != nil {
+			for _, c := range l.Output.Cautions {
+				if !slices.Contains(cautions, c) {
+					cautions = append(cautions, c)
+				}
+			}
+		}
+	}
+	s.Header.Cautions = cautions
+	s.Totals = SumRows(s.Rows)
+	return s
+}
+
+// Methods names every method the analysis uses and its published source.
+var Methods = []string{
+	"Conduction through layered insulation, k of each layer at its own mean temperature: ASTM C680, ISO 12241",
+	"Natural convection: Churchill–Chu (horizontal cylinder, vertical plate), slender-cylinder correction of Popiel, Wojtkowiak & Bober (2007)",
+	"Forced convection: Churchill–Bernstein (across a cylinder); flat-plate average (along a plate)",
+	"Radiation: grey body, Stefan–Boltzmann, with the jacket's emittance",
+	"Rectangular ducts: four faces as parallel paths, mean-perimeter rule (ISO 12241 approach)",
+	"Dew point: saturation pressure by Hyland–Wexler (ASHRAE Handbook—Fundamentals, ch. 1)",
+	"Saturated steam: IAPWS-IF97",
+	"Freeze protection: ASHRAE Handbook—Fundamentals ch. 23 cooling form; ISO 12241 §6.2 freezing",
+	"Personnel protection: surface-temperature limit on the contact-burn basis of ASTM C1055",
+	"Energy code: ASHRAE/IES 90.1 minimum pipe insulation with its conductivity correction",
+	"Economics: present worth by NIST Handbook 135 (modified uniform present-worth factor)",
+}
+
+func header(p Project, rev int, date time.Time) Header {
+	set := p.Settings
+	return Header{
+		ProjectID: p.ID, Project: p.Name, Client: p.Client, Site: p.Site, Units: p.Units,
+		Revision: rev, Date: date.UTC().Truncate(time.Second),
+		Indoor:        conditions(set.Indoor),
+		Outdoor:       conditions(set.Outdoor),
+		MethodVersion: calc.MethodVersion,
+		Methods:       slices.Clone(Methods),
+		Cautions:      []string{analysis.Caution},
+		LapWastePct:   LapWaste * 100,
+		Fittings:      set.Fittings,
+	}
+}
+
+func conditions(l analysis.Location) Conditions {
+	return Conditions{AmbientC: l.AmbientTempC, SurroundingsC: l.SurroundingsTempC, WindMS: l.WindMS, RHPct: l.RelativeHumidityPct}
+}
+
+func ptr[T any](v T) *T { return &v }
+
+func buildRow(l Line, r Resolver) Row {
+	in := l.Input
+	row := Row{
+		LineID: l.ID, Tag: l.Tag, Service: l.Service, Location: l.Location, Exposure: l.Exposure,
+		Geometry: in.Geometry, Fittings: l.Fittings, LengthM: in.LengthM, AreaM2: in.AreaM2,
+	}
+	if row.Location == "" {
+		row.Location = "indoor"
+	}
+	if row.Exposure == "" {
+		row.Exposure = "exposed"
+	}
+	if in.FittingsEquivLengthM != nil && in.LengthM != nil {
+		row.FittingsM = *in.FittingsEquivLengthM
+	}
+	if in.LengthM != nil {
+		row.InsulatedM = ptr(*in.LengthM + row.FittingsM)
+	}
+	row.Size, row.SizeSI = size(in)
+	row.DuctWmm, row.DuctHmm = in.DuctWidthMM, in.DuctHeightMM
+
+	// Materials and layers as specified.
+	var names, specs []string
+	for _, ly := range in.Layers {
+		name, spec := "custom k", ""
+		if ly.Material != "" {
+			name = ly.Material
+			if m, ok := r.Material(ly.Material); ok {
+				name, spec = m.Name, m.Spec
+			}
+		}
+		if !slices.Contains(names, name) {
+			names = append(names, name)
+		}
+		if spec != "" && !slices.Contains(specs, spec) {
+			specs = append(specs, spec)
+		}
+		if ly.ThicknessMM != nil && *ly.ThicknessMM > 0 {
+			row.Layers = append(row.Layers, *ly.ThicknessMM)
+		}
+	}
+	row.Material, row.Spec = strings.Join(names, " + "), strings.Join(specs, " + ")
+	if in.Jacket != "" {
+		row.Jacket = in.Jacket
+		if j, ok := r.Jacket(in.Jacket); ok {
+			row.Jacket, row.VapourRetarder = j.Name, j.VapourRetarder
+		}
+	} else if in.SurfaceEmittance != nil && len(in.Layers) > 0 {
+		row.Jacket = "none (surface emittance given)"
+	}
+
+	var notes []string
+	if l.Notes != "" {
+		notes = append(notes, l.Notes)
+	}
+	o := l.Output
+	if o == nil {
+		row.Error = true
+		row.Purpose = purpose(in, nil)
+		for _, e := range l.Errors {
+			notes = append(notes, "not computed: "+e)
+		}
+		if len(l.Errors) == 0 {
+			notes = append(notes, "not computed")
+		}
+		row.Notes = strings.Join(notes, "; ")
+		for _, t := range row.Layers {
+			row.ThicknessMM += t
+		}
+		return row
+	}
+	// Nominal thicknesses: what is bought and counted. A compressed blanket is thinner
+	// installed; a note says so.
+	if len(o.Layers) > 0 {
+		row.Layers = row.Layers[:0]
+		var installed, nominal float64
+		for _, ly := range o.Layers {
+			row.Layers = append(row.Layers, ly.NominalThicknessMM)
+			installed += ly.ThicknessMM
+			nominal += ly.NominalThicknessMM
+		}
+		if installed < nominal-0.05 {
+			row.InstalledMM = ptr(installed)
+		}
+	}
+	row.ThicknessMM = o.InsulationMM
+	row.PipeODmm = o.PipeODmm
+	row.OuterDiameterMM = o.OuterDiameterMM
+	row.Purpose = purpose(in, o)
+	row.HeatFlowW = o.HeatFlowW
+	row.HeatFlowWPerM = o.HeatFlowWPerM
+	row.SurfaceC = ptr(o.SurfaceTempC)
+	row.HeatTraceWPerM = o.HeatTraceWPerM
+	if o.Sizing.Governing != nil {
+		row.Governing = criterionName(*o.Sizing.Governing)
+	}
+	if ec := o.EnergyCode; ec != nil {
+		switch {
+		case !ec.Required:
+			row.EnergyCode = "not required"
+		case ec.Pass:
+			row.EnergyCode = "pass"
+		default:
+			row.EnergyCode = "fail"
+		}
+	}
+	t := row.ThicknessMM / 1000
+	switch {
+	case row.InsulatedM != nil && o.OuterAreaM2PerM != nil:
+		row.JacketAreaM2 = ptr(*o.OuterAreaM2PerM * *row.InsulatedM * (1 + LapWaste))
+		switch {
+		case o.PipeODmm != nil && o.OuterDiameterMM != nil:
+			d, D := *o.PipeODmm/1000, *o.OuterDiameterMM/1000
+			row.VolumeM3 = ptr(math.Pi / 4 * (D*D - d*d) * *row.InsulatedM)
+		case in.DuctWidthMM != nil && in.DuctHeightMM != nil:
+			w, h := *in.DuctWidthMM/1000, *in.DuctHeightMM/1000
+			row.VolumeM3 = ptr(((w+2*t)*(h+2*t) - w*h) * *row.InsulatedM)
+		}
+	case in.AreaM2 != nil:
+		row.JacketAreaM2 = ptr(*in.AreaM2 * (1 + LapWaste))
+		row.VolumeM3 = ptr(*in.AreaM2 * t)
+	}
+	if gov := o.Sizing.GoverningThicknessMM; gov != nil && *gov > o.InsulationMM+0.05 && len(in.Layers) > 0 {
+		notes = append(notes, "sizing proposes a thicker sized layer ("+criterionName(deref(o.Sizing.Governing))+")")
+	}
+	for _, u := range o.Sizing.Unmet {
+		notes = append(notes, "no available thickness meets "+criterionName(u))
+	}
+	if o.HeatTraceWPerM != nil {
+		notes = append(notes, "heat tracing needed")
+	}
+	if in.Geometry != "flat" && o.Geometry != "" && in.Jacket != "" && !row.VapourRetarder && o.OperatingTempC < o.ConditionsUsed.Condensation.AmbientTempC {
+		notes = append(notes, "cold line: jacket is not a vapour retarder")
+	}
+	row.Notes = strings.Join(notes, "; ")
+	return row
+}
+
+func deref(s *string) string {
+	if s == nil {
+		return ""
+	}
+	return *s
+}
+
+// purpose derives why the line is insulated: the governing criterion where it is
+// personnel protection, condensation or freeze protection; otherwise freeze protection
+// for a water line judged against a freeze time, cold service for a line colder than
+// its design ambient, and heat conservation for the rest.
+func purpose(in analysis.Input, o *analysis.Output) string {
+	if o != nil && o.Sizing.Governing != nil {
+		switch *o.Sizing.Governing {
+		case "personnel_protection":
+			return PurposePersonnel
+		case "condensation":
+			return PurposeCold
+		case "freeze":
+			return PurposeFreeze
+		}
+	}
+	var op, amb float64
+	switch {
+	case o != nil:
+		op, amb = o.OperatingTempC, o.ConditionsUsed.Design.AmbientTempC
+	case in.OperatingTempC != nil && in.AmbientTempC != nil:
+		op, amb = *in.OperatingTempC, *in.AmbientTempC
+	case in.SteamGaugePressureKPa != nil:
+		return PurposeHeat
+	default:
+		return ""
+	}
+	if in.Criteria != nil && in.Criteria.FreezeHours != nil && o != nil && o.FreezeHoursTo0C != nil {
+		return PurposeFreeze
+	}
+	if op < amb {
+		return PurposeCold
+	}
+	return PurposeHeat
+}
+
+// criterionName writes a sizing criterion key in words.
+func criterionName(k string) string {
+	switch k {
+	case "personnel_protection":
+		return "personnel protection"
+	case "condensation":
+		return "condensation control"
+	case "max_heat_flow":
+		return "maximum heat flow"
+	case "max_temp_change":
+		return "maximum temperature change"
+	case "freeze":
+		return "freeze protection"
+	case "energy_code":
+		return "energy code"
+	case "economic":
+		return "economic thickness"
+	}
+	return strings.ReplaceAll(k, "_", " ")
+}
+
+// size names the pipe, duct or surface. Nominal designations are kept as written; a
+// plain OD or a duct is written from its SI dimensions (and rewritten for US display).
+func size(in analysis.Input) (string, bool) {
+	switch {
+	case in.PipeSize != "":
+		return strings.TrimSpace(in.PipeSize), false
+	case in.PipeODmm != nil:
+		return "OD", true
+	case in.DuctWidthMM != nil && in.DuctHeightMM != nil:
+		return "duct", true
+	case in.Geometry == "flat":
+		return "flat surface", false
+	}
+	return "", false
+}
+
+// SizeText writes a row's size in sys.
+func (r Row) SizeText(sys units.System) string {
+	if !r.SizeSI {
+		return r.Size
+	}
+	switch {
+	case r.Size == "OD" && r.PipeODmm != nil:
+		return "OD " + units.FormatUnit(units.Length, sys, *r.PipeODmm)
+	case r.Size == "duct" && r.DuctWmm != nil && r.DuctHmm != nil:
+		return units.Format(units.Length, sys, *r.DuctWmm) + " × " + units.FormatUnit(units.Length, sys, *r.DuctHmm)
+	}
+	return r.Size
+}
+
+// Totals are the sums over the rows, in SI.
+type Totals struct {
+	ByMaterial []MaterialTotal `json:"by_material"`
+	ByJacket   []JacketTotal   `json:"by_jacket"`
+	Grand      Grand           `json:"grand"`
+}
+
+// MaterialTotal sums the rows of one material, size and total thickness.
+type MaterialTotal struct {
+	Material     string  `json:"material"`
+	Spec         string  `json:"spec"`
+	Size         string  `json:"size"`
+	ThicknessMM  float64 `json:"thickness_mm"`
+	Lines        int     `json:"lines"`
+	LengthM      float64 `json:"insulated_length_m"`
+	AreaM2       float64 `json:"area_m2"` // flat surfaces
+	JacketAreaM2 float64 `json:"jacket_area_m2"`
+	VolumeM3     float64 `json:"volume_m3"`
+}
+
+// JacketTotal sums the jacket area of one jacket.
+type JacketTotal struct {
+	Jacket         string  `json:"jacket"`
+	VapourRetarder bool    `json:"vapour_retarder"`
+	Lines          int     `json:"lines"`
+	JacketAreaM2   float64 `json:"jacket_area_m2"`
+}
+
+// Grand is the whole schedule's totals.
+type Grand struct {
+	Lines        int     `json:"lines"`
+	LengthM      float64 `json:"insulated_length_m"`
+	AreaM2       float64 `json:"area_m2"`
+	JacketAreaM2 float64 `json:"jacket_area_m2"`
+	VolumeM3     float64 `json:"volume_m3"`
+	HeatFlowW    float64 `json:"heat_flow_w"`
+}
+
+func val(p *float64) float64 {
+	if p == nil {
+		return 0
+	}
+	return *p
+}
+
+// SumRows totals rows in SI: insulated lines only (rows with a thickness) count in the
+// material totals; every row with a jacket counts in the jacket totals.
+func SumRows(rows []Row) Totals {
+	var t Totals
+	mi := map[[3]string]int{}
+	ji := map[string]int{}
+	for _, r := range rows {
+		t.Grand.Lines++
+		t.Grand.LengthM += val(r.InsulatedM)
+		t.Grand.AreaM2 += val(r.AreaM2)
+		t.Grand.JacketAreaM2 += val(r.JacketAreaM2)
+		t.Grand.VolumeM3 += val(r.VolumeM3)
+		t.Grand.HeatFlowW += val(r.HeatFlowW)
+		if r.Material != "" {
+			key := [3]string{r.Material, r.Size + "|" + r.SizeText(units.SI), thicknessKey(r.ThicknessMM)}
+			i, ok := mi[key]
+			if !ok {
+				i = len(t.ByMaterial)
+				mi[key] = i
+				t.ByMaterial = append(t.ByMaterial, MaterialTotal{Material: r.Material, Spec: r.Spec, Size: r.SizeText(units.SI), ThicknessMM: r.ThicknessMM})
+			}
+			m := &t.ByMaterial[i]
+			m.Lines++
+			m.LengthM += val(r.InsulatedM)
+			m.AreaM2 += val(r.AreaM2)
+			m.JacketAreaM2 += val(r.JacketAreaM2)
+			m.VolumeM3 += val(r.VolumeM3)
+		}
+		if r.Jacket != "" {
+			i, ok := ji[r.Jacket]
+			if !ok {
+				i = len(t.ByJacket)
+				ji[r.Jacket] = i
+				t.ByJacket = append(t.ByJacket, JacketTotal{Jacket: r.Jacket, VapourRetarder: r.VapourRetarder})
+			}
+			t.ByJacket[i].Lines++
+			t.ByJacket[i].JacketAreaM2 += val(r.JacketAreaM2)
+		}
+	}
+	return t
+}
+
+func thicknessKey(mm float64) string {
+	return units.Format(units.Length, units.SI, math.Round(mm*100)/100)
+}
