@@ -64,7 +64,7 @@ type analyser struct {
 	// Solves of this analysis by key: the first len(memoBuf) in memo, searched linearly
 	// (a line needs about ten), any more in cache (made when needed).
 	memo    []memoEntry
-	memoBuf [16]memoEntry
+	memoBuf [12]memoEntry
 	cache   map[solveKey]calc.Result
 	layers  []calc.Layer // reused by system for the sized layer's thicknesses
 	nums    []float64    // backing of num

@@ -147,7 +147,7 @@ func ptr[T any](v T) *T { return &v }
 // Every problem is reported at once as FieldErrors.
 func resolve(in Input, r Resolver) (*line, error) {
 	var c errs
-	l := &line{in: in}
+	l := &line{in: in, assumptions: make([]string, 0, 24)} // a line states about twenty
 	resolveGeometry(l, &c)
 	resolveFluid(l, &c)
 	resolveConditions(l, &c)

@@ -58,6 +58,18 @@ func (s *Server) loadLineCtx(r *http.Request, withLine bool) (*lineCtx, error) {
 	return c, nil
 }
 
+// ownInput is the stored line's own input (nil for a new line or one that cannot be read).
+func (c *lineCtx) ownInput() *analysis.Input {
+	if c.line.ID == 0 {
+		return nil
+	}
+	own, _, err := decodeLine(c.line)
+	if err != nil {
+		return nil
+	}
+	return &own
+}
+
 func (c *lineCtx) projectURL() string { return fmt.Sprintf("/projects/%d", c.p.ID) }
 
 func (c *lineCtx) lineURL() string {
@@ -175,7 +187,7 @@ func (s *Server) lineResults(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	st, lf := lineFormFromRequest(r, c.sys)
+	st, lf := lineFormFromRequest(r, c.sys, c.ownInput())
 	var res web.LineResults
 	if st.ok() {
 		stored, _, eff := s.compute(r.Context(), c, lf)
@@ -225,7 +237,7 @@ func (s *Server) lineSave(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	st, lf := lineFormFromRequest(r, c.sys)
+	st, lf := lineFormFromRequest(r, c.sys, c.ownInput())
 	if withLine && lf.Version == nil {
 		st.Other = append(st.Other, "The form lacks the line's version; reload the page.")
 	}

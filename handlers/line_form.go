@@ -119,7 +119,12 @@ func (l *lineFields) line(projectID int64) store.Line {
 
 // lineFormFromRequest reads the line form typed in the project's units. Every typed
 // value is kept as typed, for re-rendering.
-func lineFormFromRequest(r *http.Request, sys units.System) (*formState, lineFields) {
+//
+// keep is the stored line's own input (nil for a new line): its keys that the form
+// does not show (a per-line ambient or humidity, condition sets, economics, candidate
+// thicknesses, fixed coefficients … set through the API or an import) are kept, so
+// saving the form never drops them.
+func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input) (*formState, lineFields) {
 	st := newFormState()
 	var lf lineFields
 	pf := r.PostForm
@@ -226,6 +231,9 @@ func lineFormFromRequest(r *http.Request, sys units.System) (*formState, lineFie
 		layers = []any{}
 	}
 	m["layers"] = layers
+	if keep != nil {
+		m = keepHidden(jsonMap(*keep), m)
+	}
 	js, _ := json.Marshal(m)
 	if err := analysis.DecodeStrict(js, &lf.Input); err != nil {
 		st.place(asFieldErrors(err), lineFieldKey(st))
@@ -369,4 +377,36 @@ func pipeSizeOptions(sys units.System, current string) []web.Choice {
 		out = append(out, web.Choice{Value: current, Label: current})
 	}
 	return out
+}
+
+// formInputKeys are the input keys the line form shows (criteria: the limits on the form).
+var formInputKeys = []string{"geometry", "orientation", "facing", "pipe_size", "pipe_schedule", "pipe_od_mm", "pipe_material",
+	"duct_width_mm", "duct_height_mm", "height_m", "area_m2", "length_m", "fluid", "operating_temp_c",
+	"steam_gauge_pressure_kpa", "flow", "layers", "jacket", "surface_emittance"}
+
+var formCriteriaKeys = []string{"max_surface_temp_c", "dew_margin_k", "max_heat_flow_w_per_m", "max_temp_change_k", "freeze_hours"}
+
+// keepHidden lays the form's input over the stored input's keys that the form does not show.
+func keepHidden(stored, form map[string]any) map[string]any {
+	for _, k := range formInputKeys {
+		delete(stored, k)
+	}
+	if cr, ok := stored["criteria"].(map[string]any); ok {
+		for _, k := range formCriteriaKeys {
+			delete(cr, k)
+		}
+		if fc, ok := form["criteria"].(map[string]any); ok {
+			for k, v := range fc {
+				cr[k] = v
+			}
+		}
+		if len(cr) == 0 {
+			delete(stored, "criteria")
+		}
+		delete(form, "criteria")
+	}
+	for k, v := range form {
+		stored[k] = v
+	}
+	return stored
 }

@@ -91,6 +91,12 @@ func TestLinePagesCreateEditDuplicateDelete(t *testing.T) {
 		}
 	}
 
+	// A per-line humidity set through the API is not on the form: saving the form keeps it.
+	if rec := do(t, h, "PATCH", "/api/v1"+lineURL, strings.NewReader(fmt.Sprintf(`{"version": %d, "relative_humidity_pct": 85, "criteria": {"economic": true}}`, lines[0].Version)), nil); rec.Code != 200 {
+		t.Fatalf("API patch = %d: %s", rec.Code, rec.Body)
+	}
+	lines[0].Version++
+
 	// Edit: change the thickness with a fraction and save.
 	f := ptLineForm()
 	f.Set("version", fmt.Sprint(lines[0].Version))
@@ -102,6 +108,9 @@ func TestLinePagesCreateEditDuplicateDelete(t *testing.T) {
 	_ = json.Unmarshal(l.Input, &in)
 	if !ptNear(*in.Layers[0].ThicknessMM, 38.1, 1e-9) || l.Version != lines[0].Version+1 {
 		t.Errorf("after edit: thickness %v, version %d", *in.Layers[0].ThicknessMM, l.Version)
+	}
+	if in.RelativeHumidityPct == nil || *in.RelativeHumidityPct != 85 || in.Criteria == nil || in.Criteria.Economic == nil || !*in.Criteria.Economic {
+		t.Errorf("saving the form dropped keys it does not show: %s", l.Input)
 	}
 
 	// Duplicate (POST) opens the copy.

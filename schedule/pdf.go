@@ -73,13 +73,47 @@ type pdfTable struct {
 }
 
 func (d *pdfDoc) table(t Table, totalW, size float64) *pdfTable {
-	var sum float64
-	for _, c := range t.Columns {
-		sum += c.Width
-	}
 	pt := &pdfTable{t: t, size: size, lineH: size * 0.42, widths: make([]float64, len(t.Columns))}
+	// Each column at least as wide as its longest word (heading in bold, and the cells of
+	// the first rows), so words and numbers are not broken; the rest of the width is
+	// shared in proportion to the columns' nominal widths.
+	minW := make([]float64, len(t.Columns))
+	word := func(s string, i int) {
+		for _, w := range strings.Fields(s) {
+			minW[i] = max(minW[i], d.GetStringWidth(w)+2.2)
+		}
+	}
+	d.SetFont(pdfFont, "B", size)
 	for i, c := range t.Columns {
-		pt.widths[i] = totalW * c.Width / sum
+		word(c.Title, i)
+		word("("+c.Unit+")", i)
+	}
+	d.SetFont(pdfFont, "", size)
+	for r, row := range t.Rows {
+		if r >= 300 {
+			break
+		}
+		for i, c := range row {
+			if c.IsNum || i == 0 {
+				minW[i] = max(minW[i], d.GetStringWidth(c.String(t.Columns[i].Decimals))+2.2)
+			} else {
+				word(c.Text, i)
+			}
+		}
+	}
+	var need, nominal float64
+	for i, c := range t.Columns {
+		minW[i] = min(minW[i], totalW/4)
+		need += minW[i]
+		nominal += c.Width
+	}
+	spare := totalW - need
+	for i, c := range t.Columns {
+		if spare >= 0 {
+			pt.widths[i] = minW[i] + spare*c.Width/nominal
+		} else {
+			pt.widths[i] = minW[i] * totalW / need
+		}
 	}
 	return pt
 }
@@ -88,7 +122,7 @@ func (d *pdfDoc) lines(text string, w float64, max int) []string {
 	if text == "" {
 		return []string{""}
 	}
-	ls := d.SplitText(text, w)
+	ls := d.wrap(text, w-2.2)
 	if len(ls) > max {
 		ls = ls[:max]
 		ls[max-1] = strings.TrimRight(ls[max-1], " ") + "…"
@@ -136,6 +170,39 @@ func (d *pdfDoc) drawRow(pt *pdfTable, texts []string, numeric []bool, bold bool
 	d.SetXY(x0, y0+h)
 }
 
+// wrap breaks text into lines no wider than w (mm) in the current font, at spaces;
+// a word wider than w is broken between characters.
+func (d *pdfDoc) wrap(text string, w float64) []string {
+	var out []string
+	space := d.GetStringWidth(" ")
+	for _, para := range strings.Split(text, "\n") {
+		line, lw := "", 0.0
+		for _, word := range strings.Fields(para) {
+			ww := d.GetStringWidth(word)
+			if line != "" && lw+space+ww <= w {
+				line, lw = line+" "+word, lw+space+ww
+				continue
+			}
+			if line != "" {
+				out = append(out, line)
+			}
+			for ww > w && len([]rune(word)) > 1 {
+				r := []rune(word)
+				k := len(r) - 1
+				for k > 1 && d.GetStringWidth(string(r[:k])) > w {
+					k--
+				}
+				out = append(out, string(r[:k]))
+				word = string(r[k:])
+				ww = d.GetStringWidth(word)
+			}
+			line, lw = word, ww
+		}
+		out = append(out, line)
+	}
+	return out
+}
+
 func sum(xs []float64) float64 {
 	var s float64
 	for _, x := range xs {
@@ -150,7 +217,7 @@ func (d *pdfDoc) headingOf(pt *pdfTable) func() {
 	for i, c := range pt.t.Columns {
 		heads[i] = c.Heading()
 	}
-	return func() { d.drawRow(pt, heads, num, true, true, 4) }
+	return func() { d.drawRow(pt, heads, num, true, true, 6) }
 }
 
 func (d *pdfDoc) body(pt *pdfTable, maxLines int) {
@@ -187,23 +254,28 @@ func (d *pdfDoc) tableSection(title string, t Table, size float64, maxLines int)
 }
 
 func (d *pdfDoc) keyValues(kvs [][2]string, labelW float64) {
+	const lh = 3.8
 	for _, kv := range kvs {
 		d.SetFont(pdfFont, "B", 8)
-		y := d.GetY()
-		lines := d.lines(kv[1], d.w-2*d.margin-labelW, 20)
-		h := float64(len(lines)) * 3.8
-		if y+h > d.bottom {
-			d.AddPage()
-			y = d.GetY()
-		}
-		d.SetXY(d.margin, y)
-		d.MultiCell(labelW, 3.8, kv[0], "", "L", false)
+		labels := d.lines(kv[0], labelW, 4)
 		d.SetFont(pdfFont, "", 8)
-		for k, l := range lines {
-			d.SetXY(d.margin+labelW, y+float64(k)*3.8)
-			d.CellFormat(d.w-2*d.margin-labelW, 3.8, l, "", 0, "L", false, 0, "")
+		values := d.lines(kv[1], d.w-2*d.margin-labelW, 30)
+		h := float64(max(len(labels), len(values))) * lh
+		if d.GetY()+h > d.bottom {
+			d.AddPage()
 		}
-		d.SetXY(d.margin, y+max(h, 3.8)+0.8)
+		y := d.GetY()
+		d.SetFont(pdfFont, "B", 8)
+		for k, l := range labels {
+			d.SetXY(d.margin, y+float64(k)*lh)
+			d.CellFormat(labelW, lh, l, "", 0, "L", false, 0, "")
+		}
+		d.SetFont(pdfFont, "", 8)
+		for k, l := range values {
+			d.SetXY(d.margin+labelW, y+float64(k)*lh)
+			d.CellFormat(d.w-2*d.margin-labelW, lh, l, "", 0, "L", false, 0, "")
+		}
+		d.SetXY(d.margin, y+h+0.8)
 	}
 }
 
@@ -247,7 +319,7 @@ func WriteSchedulePDF(w io.Writer, s Schedule) error {
 	d.list("Methods", h.Methods)
 	d.list("Cautions", h.Cautions)
 	d.AddPage()
-	d.tableSection("Schedule", v.Rows, 6, 4)
+	d.tableSection("Schedule", v.Rows, 5.5, 6)
 	d.tableSection("Totals by material, size and thickness", v.ByMaterial, 8, 3)
 	d.tableSection("Totals by jacket", v.ByJacket, 8, 3)
 	d.tableSection("Grand totals", v.Grand, 8, 2)

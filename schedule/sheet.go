@@ -205,7 +205,13 @@ func BuildSheet(p Project, l Line, r Resolver, date time.Time) Sheet {
 	res := Section{Title: "Results"}
 	res.add("Total insulation thickness", f.q(units.Length, o.InsulationMM))
 	res.add("Insulation outside diameter", f.p(units.Length, o.OuterDiameterMM))
-	res.add("Jacket area per length", num(o.OuterAreaM2PerM, " m²/m"))
+	if a := o.OuterAreaM2PerM; a != nil {
+		if sys == units.US {
+			res.add("Jacket area per length", strconv.FormatFloat(*a/units.Foot, 'f', 3, 64)+" ft²/ft")
+		} else {
+			res.add("Jacket area per length", strconv.FormatFloat(*a, 'f', 3, 64)+" m²/m")
+		}
+	}
 	res.add("Equivalent length (run + fittings)", f.p(units.LongLength, o.EquivalentLengthM))
 	res.add("Heat flow per length", f.p(units.HeatFlowPerLength, o.HeatFlowWPerM))
 	res.add("Heat flux at the surface", f.q(units.HeatFlux, o.HeatFluxWm2))

@@ -11,10 +11,18 @@ import (
 	"lagwright/store/localpg"
 )
 
+// How a command uses the private cluster: the app owns it; short-lived commands
+// (demo, migrate, user) attach to it when a running app owns it.
+const (
+	ownCluster    = false
+	attachCluster = true
+)
+
 // openStore connects to DATABASE_URL, or when it is unset starts the private
 // cluster in <data>/pg. The returned close function closes the store and stops the
-// cluster (with its own timeout: it runs after ctx is cancelled).
-func openStore(ctx context.Context, cfg config, log *slog.Logger) (*store.Store, func() error, error) {
+// cluster (with its own timeout: it runs after ctx is cancelled) unless it was
+// attached to a running app's cluster.
+func openStore(ctx context.Context, cfg config, log *slog.Logger, attach bool) (*store.Store, func() error, error) {
 	if cfg.DatabaseURL != "" {
 		st, err := store.Open(ctx, cfg.DatabaseURL)
 		if err != nil {
@@ -25,6 +33,7 @@ func openStore(ctx context.Context, cfg config, log *slog.Logger) (*store.Store,
 	cl, err := localpg.Start(ctx, localpg.Options{
 		DataDir: filepath.Join(cfg.DataDir, "pg"),
 		Logger:  log.With("component", "localpg"),
+		Attach:  attach,
 	})
 	if err != nil {
 		return nil, nil, err

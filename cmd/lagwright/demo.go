@@ -21,7 +21,7 @@ func demoCmd(ctx context.Context, args []string, getenv func(string) string, std
 		return usageError{fmt.Sprintf("demo takes no arguments, got %q", rest)}
 	}
 	log := newLogger(stderr, cfg.LogLevel)
-	st, closeStore, err := openStore(ctx, cfg, log)
+	st, closeStore, err := openStore(ctx, cfg, log, attachCluster)
 	if err != nil {
 		return err
 	}

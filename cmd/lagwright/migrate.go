@@ -29,7 +29,7 @@ func migrateCmd(ctx context.Context, args []string, getenv func(string) string, 
 		return usageError{fmt.Sprintf("migrate %q: want up, down or version", rest[0])}
 	}
 	log := newLogger(stderr, cfg.LogLevel)
-	st, closeStore, err := openStore(ctx, cfg, log)
+	st, closeStore, err := openStore(ctx, cfg, log, attachCluster)
 	if err != nil {
 		return err
 	}

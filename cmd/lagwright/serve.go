@@ -42,7 +42,7 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 	defer stop()
 
 	t0 := time.Now()
-	st, closeStore, err := openStore(ctx, cfg, log)
+	st, closeStore, err := openStore(ctx, cfg, log, ownCluster)
 	if err != nil {
 		return err
 	}

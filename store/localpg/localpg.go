@@ -52,6 +52,10 @@ type Options struct {
 	// StopOnExit starts a watchdog process that stops the cluster when this process
 	// exits by any means (a panic, a test timeout, SIGKILL): for throwaway clusters.
 	StopOnExit bool
+	// Attach lets a short-lived command (demo, migrate, user) use a cluster that a
+	// running app owns: when the data folder is locked by a live process and its
+	// server answers, the Cluster connects to it and Stop leaves it running.
+	Attach bool
 }
 
 // Cluster is a running local PostgreSQL cluster.
@@ -63,6 +67,7 @@ type Cluster struct {
 	user      dbUser
 	log       *slog.Logger
 	adopted   bool
+	attached  bool // owned by another live process: Stop leaves it running
 
 	mu       sync.Mutex
 	stopped  bool
@@ -123,6 +128,9 @@ func Start(ctx context.Context, opt Options) (_ *Cluster, err error) {
 	}
 	c := &Cluster{dataDir: dataDir, port: defaultPort, binDir: binDir, user: u, log: log.With("pgdata", dataDir)}
 	if err := c.takeLock(); err != nil {
+		if errors.Is(err, errLocked) && opt.Attach {
+			return c.attach(ctx, opt.Database)
+		}
 		return nil, err
 	}
 	defer func() {
@@ -225,11 +233,13 @@ func (c *Cluster) EnsureDatabase(ctx context.Context, name string) error {
 }
 
 // Stop stops the cluster (pg_ctl stop -m fast: sessions are disconnected, and
-// committed work is safe). Calling it again does nothing.
+// committed work is safe). Calling it again does nothing. An attached cluster is
+// left running for the process that owns it.
 func (c *Cluster) Stop(ctx context.Context) error {
 	c.mu.Lock()
 	defer c.mu.Unlock()
-	if c.stopped {
+	if c.stopped || c.attached {
+		c.stopped = true
 		return nil
 	}
 	t0 := time.Now()
@@ -399,6 +409,31 @@ func (c *Cluster) waitReady(ctx context.Context) error {
 	}
 }
 
+// errLocked: another live process holds the cluster's lock.
+var errLocked = errors.New("cluster in use")
+
+// attach connects to the cluster a live app owns, without owning it.
+func (c *Cluster) attach(ctx context.Context, db string) (*Cluster, error) {
+	info, err := readPidFile(c.dataDir)
+	if err != nil || !isPostmasterOf(info.pid, c.dataDir) {
+		return nil, fmt.Errorf("localpg: the database in %s is locked by another process but its server is not running", c.dataDir)
+	}
+	c.socketDir, c.port, c.attached = info.socketDir, info.port, true
+	if err := c.waitReady(ctx); err != nil {
+		return nil, err
+	}
+	if db == "" {
+		db = "lagwright"
+	}
+	if db != "-" {
+		if err := c.EnsureDatabase(ctx, db); err != nil {
+			return nil, err
+		}
+	}
+	c.log.Info("using PostgreSQL owned by the running app", "socket_dir", c.socketDir)
+	return c, nil
+}
+
 // takeLock holds an exclusive flock on <DataDir>.lock for the life of the Cluster,
 // so two live processes never share (and stop) one cluster. The kernel releases it
 // when the holder dies, however it dies.
@@ -411,7 +446,7 @@ func (c *Cluster) takeLock() error {
 	if err := syscall.Flock(int(f.Fd()), syscall.LOCK_EX|syscall.LOCK_NB); err != nil {
 		f.Close()
 		if errors.Is(err, syscall.EWOULDBLOCK) {
-			return fmt.Errorf("localpg: another running process is using the database in %s", c.dataDir)
+			return fmt.Errorf("localpg: another running process is using the database in %s: %w", c.dataDir, errLocked)
 		}
 		return fmt.Errorf("localpg: lock %s: %w", path, err)
 	}

@@ -141,6 +141,27 @@ func TestSecondLiveProcessRefused(t *testing.T) {
 	mustStop(t, c)
 }
 
+// A short-lived command attaches to the cluster a running app owns, and its Stop
+// leaves the cluster running for the owner.
+func TestAttachToOwnedCluster(t *testing.T) {
+	dir := filepath.Join(testDir(t), "pg")
+	owner := mustStart(t, Options{DataDir: dir, Fast: true})
+	exec1(t, owner, `CREATE TABLE shared (x int)`)
+	guest, err := Start(context.Background(), Options{DataDir: dir, Attach: true})
+	if err != nil {
+		t.Fatalf("attach: %v", err)
+	}
+	exec1(t, guest, `INSERT INTO shared VALUES (1)`)
+	if err := guest.Stop(context.Background()); err != nil {
+		t.Fatalf("guest Stop: %v", err)
+	}
+	if n := count(t, owner, "shared"); n != 1 {
+		t.Errorf("rows seen by the owner after the guest stopped = %d, want 1 (cluster must keep running)", n)
+	}
+	mustStop(t, owner)
+	assertNoServer(t, dir)
+}
+
 // TestHelperProcess is not a test: the tests below run the test binary again with
 // LOCALPG_HELPER_DIR set, to own a cluster in another process they can SIGKILL.
 func TestHelperProcess(t *testing.T) {
