@@ -75,13 +75,25 @@ func (p *path) march(ts, q, dq float64) (tin, under, dtin float64, err error) {
 	return t, under, dt, nil
 }
 
-// layerInner solves s·k((Ti+To)/2)·(Ti − To) = q for the inner face temperature Ti by a
-// Newton iteration safeguarded by bisection on [To, To + q/(s·k_min)].
+// layerInner solves s·k((Ti+To)/2)·(Ti − To) = q for the inner face temperature Ti: in
+// closed form where it can (see innerExact), else by a Newton iteration safeguarded by
+// bisection on [To, To + q/(s·k_min)].
 func layerInner(l *pathLayer, to, q float64) (ti, k, dk float64, beyond bool, err error) {
 	if q == 0 {
 		k, dk, beyond = l.curve.eval(to)
 		return to, k, dk, beyond, nil
 	}
+	if ti, ok := innerExact(l, to, q); ok {
+		k, dk, beyond = l.curve.eval((ti + to) / 2)
+		if f := l.s*k*(ti-to) - q; math.Abs(f) <= 1e-12*math.Abs(q) {
+			return ti, k, dk, beyond, nil
+		}
+	}
+	return layerInnerIter(l, to, q)
+}
+
+// layerInnerIter is layerInner by a Newton iteration safeguarded by bisection.
+func layerInnerIter(l *pathLayer, to, q float64) (ti, k, dk float64, beyond bool, err error) {
 	lo, hi := to, to+q/(l.s*l.curve.minK())
 	if lo > hi {
 		lo, hi = hi, lo
@@ -125,4 +137,67 @@ func layerInner(l *pathLayer, to, q float64) (ti, k, dk float64, beyond bool, er
 		return 0, 0, 0, false, errors.New("calc: layer temperature solve did not converge")
 	}
 	return x, k, dk, beyond, nil
+}
+
+// innerExact solves the layer equation in closed form. k is linear in the mean temperature
+// m = To + d/2 (d = Ti − To) along each segment of the curve, so on the segment that holds
+// the mean, s·(k_line(To) + b·d/2)·d = q is a quadratic in d whose root near q/(s·k) is
+// d = 2Q/(k0 + √(k0² + 2bQ)), Q = q/s. The segment is found by stepping from the one that
+// holds To. ok is false where this does not settle (the extension's floor, a line that is
+// not positive, no real root): layerInner then iterates.
+func innerExact(l *pathLayer, to, q float64) (ti float64, ok bool) {
+	c := l.curve
+	n := len(c)
+	Q := q / l.s
+	if n == 1 {
+		return to + q/(l.s*c[0].K), true
+	}
+	i := 0 // the segment that eval uses at To
+	switch {
+	case to < c[0].MeanC:
+	case to > c[n-1].MeanC:
+		i = n - 2
+	default:
+		for i < n-2 && to >= c[i+1].MeanC {
+			i++
+		}
+	}
+	dir := 0
+	for range n {
+		a, b := c[i], c[i+1]
+		slope := (b.K - a.K) / (b.MeanC - a.MeanC)
+		k0 := a.K + slope*(to-a.MeanC)
+		if !(k0 > 0) {
+			return 0, false
+		}
+		disc := k0*k0 + 2*slope*Q
+		if !(disc >= 0) {
+			return 0, false
+		}
+		d := 2 * Q / (k0 + math.Sqrt(disc))
+		m := to + d/2
+		switch {
+		case i < n-2 && m >= b.MeanC: // the mean lies on a later segment
+			if dir < 0 {
+				return 0, false
+			}
+			dir, i = 1, i+1
+		case i > 0 && m < a.MeanC: // on an earlier one
+			if dir > 0 {
+				return 0, false
+			}
+			dir, i = -1, i-1
+		default:
+			end := c[0].K
+			if m > c[n-1].MeanC {
+				end = c[n-1].K
+			}
+			if (m < c[0].MeanC || m > c[n-1].MeanC) && k0+slope*d/2 < kFloorFraction*end {
+				return 0, false // on the extension's floor: iterate
+			}
+			ti = to + d
+			return ti, finite(ti)
+		}
+	}
+	return 0, false
 }

@@ -20,14 +20,16 @@ import (
 type Code string
 
 const (
-	CodeNotFound         Code = "not_found"   // 404
-	CodeConflict         Code = "conflict"    // 409: duplicate, in use, or changed meanwhile
-	CodeInvalid          Code = "invalid"     // 422: bad input, with field errors
-	CodeUnavailable      Code = "unavailable" // 503: the database is down or too slow
-	CodeInternal         Code = "internal"    // 500: our fault; logged
-	CodeForbidden        Code = "forbidden"   // 403: cross-origin request
-	CodeTooLarge         Code = "too_large"   // 413: body over the limit
-	CodeMethodNotAllowed Code = "method"      // 405
+	CodeNotFound         Code = "not_found"    // 404
+	CodeConflict         Code = "conflict"     // 409: duplicate, in use, or changed meanwhile
+	CodeInvalid          Code = "invalid"      // 422: bad input, with field errors
+	CodeUnavailable      Code = "unavailable"  // 503: the database is down or too slow
+	CodeInternal         Code = "internal"     // 500: our fault; logged
+	CodeForbidden        Code = "forbidden"    // 403: cross-origin request
+	CodeTooLarge         Code = "too_large"    // 413: body over the limit
+	CodeMethodNotAllowed Code = "method"       // 405
+	CodeUnauthorized     Code = "unauthorized" // 401: not signed in
+	CodeTooManyRequests  Code = "too_many"     // 429: sign-in attempts over the limit
 )
 
 // FieldError names one bad input field ("" for the request as a whole).
@@ -94,6 +96,9 @@ func classify(err error) *Error {
 	case errors.As(err, &pgErr) && (pgErr.Code == "57014" || strings.HasPrefix(pgErr.Code, "08") || pgErr.Code == "57P01"):
 		// query_canceled (statement_timeout), connection exceptions, admin shutdown
 		return &Error{Code: CodeUnavailable, Message: "The database is busy or unavailable; try again shortly.", Err: err}
+	case errors.As(err, new(*pgconn.ConnectError)):
+		// the server refused or did not answer the connection (it is down or restarting)
+		return &Error{Code: CodeUnavailable, Message: "The database is not answering; try again shortly.", Err: err}
 	case errors.Is(err, context.DeadlineExceeded):
 		return &Error{Code: CodeUnavailable, Message: "The request took too long; try again shortly.", Err: err}
 	}
@@ -120,6 +125,10 @@ func statusOf(c Code) int {
 		return http.StatusRequestEntityTooLarge
 	case CodeMethodNotAllowed:
 		return http.StatusMethodNotAllowed
+	case CodeUnauthorized:
+		return http.StatusUnauthorized
+	case CodeTooManyRequests:
+		return http.StatusTooManyRequests
 	}
 	return http.StatusInternalServerError
 }
@@ -128,6 +137,11 @@ func statusOf(c Code) int {
 // ones (and database outages), and answers with JSON or an HTML page.
 func (s *Server) fail(w http.ResponseWriter, r *http.Request, err error) {
 	e := classify(err)
+	if e.Code == CodeInternal && s.store != nil && s.dbReady(r.Context()) != nil {
+		// A connection dropped mid-query (the server stopped or restarted) is not our
+		// bug: the database is away, and the pool reconnects when it is back.
+		e = &Error{Code: CodeUnavailable, Message: "The database is not answering; try again shortly.", Err: err}
+	}
 	status := statusOf(e.Code)
 	switch e.Code {
 	case CodeInternal:

@@ -24,6 +24,8 @@ type Config struct {
 	// cross-origin requests, e.g. the public origin behind a reverse proxy that
 	// rewrites Host.
 	TrustedOrigins []string
+	// Auth: accounts, sessions and roles (auth.go).
+	Auth AuthConfig
 }
 
 // DefaultMaxBodyBytes is the request body limit unless Config says otherwise.
@@ -38,6 +40,8 @@ type Server struct {
 	cop    *http.CrossOriginProtection
 	// jobs holds long-running work (imports) by id, so a page can show its progress.
 	jobs sync.Map
+	// logins counts failed sign-ins (auth.go).
+	logins loginLimiter
 }
 
 // New builds a Server.
@@ -66,8 +70,14 @@ func New(st *store.Store, log *slog.Logger, cfg Config) (*Server, error) {
 // request logging, panic recovery, security headers, cross-origin protection for
 // unsafe methods (403), and the request body limit.
 func (s *Server) Routes() http.Handler {
+	return s.logRequests(s.recoverPanics(securityHeaders(s.cop.Handler(s.router()))))
+}
+
+// router is the chi router of every route, without the outer safety layers.
+func (s *Server) router() *chi.Mux {
 	r := chi.NewRouter()
 	r.Use(s.limitBody)
+	r.Use(s.authenticate)
 	r.NotFound(func(w http.ResponseWriter, r *http.Request) { s.fail(w, r, NotFound("page")) })
 	r.MethodNotAllowed(func(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, &Error{Code: CodeMethodNotAllowed, Message: "This address does not accept " + r.Method + " requests."})
@@ -76,11 +86,13 @@ func (s *Server) Routes() http.Handler {
 	r.Get("/healthz", s.healthz)
 	r.Get("/readyz", s.readyz)
 	r.Get("/static/*", s.static)
+	r.Get("/login", s.loginPage)
+	r.Post("/login", s.login)
+	r.Post("/logout", s.logout)
 	r.Get("/", s.home)
 	s.mountPages(r)
 	r.Route("/api/v1", s.mountAPI)
-
-	return s.logRequests(s.recoverPanics(securityHeaders(s.cop.Handler(r))))
+	return r
 }
 
 // mountPages mounts the screens, one resource per file (routes_*.go).

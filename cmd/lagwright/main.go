@@ -4,6 +4,7 @@
 //	lagwright migrate up|down|version
 //	lagwright calc < line.json     analyse one line (JSON in, JSON out; no database)
 //	lagwright demo                 create the demo project
+//	lagwright user add|passwd|remove|list <name> [--role editor|viewer]
 //	lagwright version
 //
 // Configuration comes from flags, then the environment: LAGWRIGHT_ADDR,
@@ -58,6 +59,8 @@ func run(ctx context.Context, args []string, getenv func(string) string, stdin i
 		return calcCmd(args, stdin, stdout)
 	case "demo":
 		return demoCmd(ctx, args, getenv, stdout, stderr)
+	case "user":
+		return userCmd(ctx, args, getenv, stdin, stdout, stderr)
 	case "version":
 		fmt.Fprintln(stdout, "lagwright", version())
 		return nil
@@ -76,6 +79,8 @@ Commands:
   migrate up|down|version   apply, revert, or show the database schema
   calc                      analyse one line: JSON on stdin, JSON on stdout (exit 2 on bad input)
   demo                      create the demo project (an invented brewery expansion)
+  user add|passwd <name> [--role editor|viewer]   add a user or set the password (first line of stdin)
+  user remove <name> | user list                  remove a user (ends their sessions), list users
   version                   print the version
 
 Flags and environment (flags win):
@@ -83,6 +88,8 @@ Flags and environment (flags win):
   -database-url  DATABASE_URL          PostgreSQL URL; unset: a private cluster in the data folder
   -data          LAGWRIGHT_DATA        data folder (default ./data)
   -log-level     LAGWRIGHT_LOG_LEVEL   debug, info, warn or error (default info)
+                 LAGWRIGHT_AUTH        auto (login unless loopback), required, or off (loopback only)
+                 LAGWRIGHT_SECURE_COOKIES  1: session cookie always Secure (TLS at a proxy)
 `
 
 // usageError marks a mistake in the command line (exit status 2).

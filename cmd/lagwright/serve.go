@@ -37,6 +37,10 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 	if len(rest) > 0 {
 		return usageError{fmt.Sprintf("serve takes no arguments, got %q", rest)}
 	}
+	auth, err := authConfig(cfg.Addr, getenv)
+	if err != nil {
+		return err
+	}
 	log := newLogger(stderr, cfg.LogLevel)
 	ctx, stop := signal.NotifyContext(ctx, os.Interrupt, syscall.SIGTERM)
 	defer stop()
@@ -56,7 +60,7 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 	}
 	log.Info("database ready", "schema_version", v.String(), "elapsed", time.Since(t0).Round(time.Millisecond))
 
-	srv, err := handlers.New(st, log, handlers.Config{Version: version()})
+	srv, err := handlers.New(st, log, handlers.Config{Version: version(), Auth: auth})
 	if err != nil {
 		return err
 	}
@@ -65,16 +69,9 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 	if err != nil {
 		return fmt.Errorf("listen: %w", err)
 	}
-	hs := &http.Server{
-		Handler:           srv.Routes(),
-		ReadHeaderTimeout: readHeaderTimeout,
-		ReadTimeout:       readTimeout,
-		WriteTimeout:      writeTimeout,
-		IdleTimeout:       idleTimeout,
-		ErrorLog:          slog.NewLogLogger(log.Handler(), slog.LevelWarn),
-		BaseContext:       func(net.Listener) context.Context { return context.WithoutCancel(ctx) },
-	}
-	log.Info("listening", "addr", ln.Addr().String(), "url", "http://"+ln.Addr().String()+"/", "version", version())
+	hs := newHTTPServer(ctx, srv.Routes(), log)
+	log.Info("listening", "addr", ln.Addr().String(), "url", "http://"+ln.Addr().String()+"/", "version", version(),
+		"login_required", auth.Required)
 
 	errc := make(chan error, 1)
 	go func() { errc <- hs.Serve(ln) }()
@@ -91,4 +88,17 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 		return fmt.Errorf("shutdown: %w", err)
 	}
 	return nil
+}
+
+// newHTTPServer is the http.Server of serve, with its timeouts.
+func newHTTPServer(ctx context.Context, h http.Handler, log *slog.Logger) *http.Server {
+	return &http.Server{
+		Handler:           h,
+		ReadHeaderTimeout: readHeaderTimeout,
+		ReadTimeout:       readTimeout,
+		WriteTimeout:      writeTimeout,
+		IdleTimeout:       idleTimeout,
+		ErrorLog:          slog.NewLogLogger(log.Handler(), slog.LevelWarn),
+		BaseContext:       func(net.Listener) context.Context { return context.WithoutCancel(ctx) },
+	}
 }

@@ -1,0 +1,318 @@
+package handlers
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"net"
+	"net/http"
+	"net/url"
+	"strconv"
+	"strings"
+	"sync"
+	"time"
+
+	"github.com/a-h/templ"
+
+	"lagwright/store"
+	"lagwright/web"
+)
+
+// Accounts and sessions.
+//
+// With AuthConfig.Required false (the default on a loopback address) the app is one
+// local user with no login, as before. With it true every route but the public ones
+// (/healthz, /readyz, /static/…, /login, /logout) needs a session: a random 32-byte
+// token in an HttpOnly, SameSite=Lax cookie (Secure over TLS or when
+// AuthConfig.SecureCookies is set), kept in PostgreSQL only as its SHA-256 and renewed
+// at every login. Viewers may look but every unsafe method (anything but GET, HEAD and
+// OPTIONS, save POST /logout) is refused with 403. Failed logins are limited per client
+// IP and per user name, in this instance's memory.
+
+// AuthConfig is the account side of Config.
+type AuthConfig struct {
+	// Required: every non-public route needs a signed-in user.
+	Required bool
+	// SecureCookies marks the session cookie Secure even when the request did not
+	// come over TLS (behind a reverse proxy that terminates TLS).
+	SecureCookies bool
+	// SessionTTL is how long a session lasts from login; 0 means DefaultSessionTTL.
+	SessionTTL time.Duration
+}
+
+// DefaultSessionTTL is a session's lifetime unless AuthConfig says otherwise.
+const DefaultSessionTTL = 7 * 24 * time.Hour
+
+// SessionCookie is the name of the session cookie.
+const SessionCookie = "lagwright_session"
+
+// Login limits: after loginMaxFailures failures within loginWindow, from one IP or for
+// one name, further attempts get 429 with Retry-After until the oldest failure ages out.
+const (
+	loginMaxFailures = 5
+	loginWindow      = 15 * time.Minute
+	loginMaxKeys     = 10000 // bound on the limiter's memory
+)
+
+type userKey struct{}
+
+// currentUser returns the signed-in user of the request (none in local mode).
+func currentUser(ctx context.Context) (store.User, bool) {
+	u, ok := ctx.Value(userKey{}).(store.User)
+	return u, ok
+}
+
+// publicPath: reachable without a session.
+func publicPath(p string) bool {
+	switch p {
+	case "/healthz", "/readyz", "/login", "/logout":
+		return true
+	}
+	return strings.HasPrefix(p, "/static/")
+}
+
+func safeMethod(m string) bool {
+	return m == http.MethodGet || m == http.MethodHead || m == http.MethodOptions
+}
+
+// authenticate is the router's account middleware (see the comment at the top).
+func (s *Server) authenticate(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if !s.cfg.Auth.Required || publicPath(r.URL.Path) {
+			next.ServeHTTP(w, r)
+			return
+		}
+		u, err := s.sessionUser(r)
+		switch {
+		case errors.Is(err, store.ErrNotFound):
+			if safeMethod(r.Method) && !wantsJSON(r) {
+				http.Redirect(w, r, "/login?next="+url.QueryEscape(r.URL.RequestURI()), http.StatusSeeOther)
+				return
+			}
+			s.fail(w, r, &Error{Code: CodeUnauthorized, Message: "Please sign in first."})
+			return
+		case err != nil:
+			s.fail(w, r, err) // the database is away: 503
+			return
+		}
+		if u.Role != store.RoleEditor && !safeMethod(r.Method) {
+			s.fail(w, r, &Error{Code: CodeForbidden, Message: "Your account may view but not change anything."})
+			return
+		}
+		ctx := context.WithValue(r.Context(), userKey{}, u)
+		ctx = web.WithAccount(ctx, web.Account{Name: u.Name, Role: u.Role})
+		next.ServeHTTP(w, r.WithContext(ctx))
+	})
+}
+
+// sessionUser is the user of the request's session cookie, or store.ErrNotFound.
+func (s *Server) sessionUser(r *http.Request) (store.User, error) {
+	c, err := r.Cookie(SessionCookie)
+	if err != nil || c.Value == "" || len(c.Value) > 100 {
+		return store.User{}, store.ErrNotFound
+	}
+	return s.store.SessionUser(r.Context(), c.Value)
+}
+
+func (s *Server) sessionCookie(r *http.Request, value string, maxAge int) *http.Cookie {
+	return &http.Cookie{Name: SessionCookie, Value: value, Path: "/", MaxAge: maxAge, HttpOnly: true,
+		SameSite: http.SameSiteLaxMode, Secure: r.TLS != nil || s.cfg.Auth.SecureCookies}
+}
+
+// loginPage shows the sign-in form (GET /login).
+func (s *Server) loginPage(w http.ResponseWriter, r *http.Request) {
+	if !s.cfg.Auth.Required {
+		http.Redirect(w, r, "/", http.StatusSeeOther)
+		return
+	}
+	v := web.LoginView{Assets: s.assets.urls, Next: localPath(r.URL.Query().Get("next"))}
+	if r.URL.Query().Has("out") {
+		v.Info = "You are signed out."
+	}
+	s.renderLogin(w, r, v, http.StatusOK)
+}
+
+func (s *Server) renderLogin(w http.ResponseWriter, r *http.Request, v web.LoginView, status int) {
+	w.Header().Set("Cache-Control", "no-store")
+	templ.Handler(web.Login(v), templ.WithStatus(status)).ServeHTTP(w, r)
+}
+
+// login checks a name and password (POST /login), starts a new session and goes to
+// the page asked for. A failure says the same for an unknown name and a wrong password.
+func (s *Server) login(w http.ResponseWriter, r *http.Request) {
+	if !s.cfg.Auth.Required {
+		http.Redirect(w, r, "/", http.StatusSeeOther)
+		return
+	}
+	if err := r.ParseForm(); err != nil {
+		s.fail(w, r, badForm(err))
+		return
+	}
+	name, password := strings.TrimSpace(r.PostForm.Get("name")), r.PostForm.Get("password")
+	v := web.LoginView{Assets: s.assets.urls, Name: name, Next: localPath(r.PostForm.Get("next"))}
+	keys := loginKeys(r, name)
+	now := time.Now()
+	if wait := s.logins.retryAfter(now, keys...); wait > 0 {
+		mins := int(wait.Round(time.Minute) / time.Minute)
+		w.Header().Set("Retry-After", strconv.Itoa(int(wait.Seconds()+0.999)))
+		v.Message = fmt.Sprintf("Too many failed sign-ins. Try again in %d minute%s.", max(mins, 1), map[bool]string{true: "", false: "s"}[max(mins, 1) == 1])
+		s.renderLogin(w, r, v, http.StatusTooManyRequests)
+		return
+	}
+	var u store.User
+	err := store.ErrBadLogin
+	if name != "" && password != "" && len(name) <= 256 && len(password) <= 1024 {
+		u, err = s.store.Authenticate(r.Context(), name, password)
+	}
+	if errors.Is(err, store.ErrBadLogin) {
+		s.logins.fail(now, keys...)
+		v.Message = "Wrong name or password."
+		s.renderLogin(w, r, v, http.StatusUnauthorized)
+		return
+	}
+	if err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	s.logins.reset(keys[1]) // the name's count; the IP's stays
+	// A new token at every login (no session fixation); the old one, if any, ends.
+	if c, err := r.Cookie(SessionCookie); err == nil && c.Value != "" {
+		_ = s.store.DeleteSession(r.Context(), c.Value)
+	}
+	ttl := s.cfg.Auth.SessionTTL
+	if ttl <= 0 {
+		ttl = DefaultSessionTTL
+	}
+	token := store.NewSessionToken()
+	if err := s.store.CreateSession(r.Context(), u.ID, token, now.Add(ttl)); err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	http.SetCookie(w, s.sessionCookie(r, token, int(ttl/time.Second)))
+	w.Header().Set("Cache-Control", "no-store")
+	next := v.Next
+	if next == "" {
+		next = "/"
+	}
+	http.Redirect(w, r, next, http.StatusSeeOther)
+}
+
+// logout ends the session (POST /logout) and clears the cookie.
+func (s *Server) logout(w http.ResponseWriter, r *http.Request) {
+	if c, err := r.Cookie(SessionCookie); err == nil && c.Value != "" && len(c.Value) <= 100 {
+		if err := s.store.DeleteSession(r.Context(), c.Value); err != nil {
+			s.fail(w, r, err)
+			return
+		}
+	}
+	http.SetCookie(w, s.sessionCookie(r, "", -1))
+	w.Header().Set("Cache-Control", "no-store")
+	if !s.cfg.Auth.Required {
+		http.Redirect(w, r, "/", http.StatusSeeOther)
+		return
+	}
+	http.Redirect(w, r, "/login?out=1", http.StatusSeeOther)
+}
+
+// badForm maps a form that cannot be parsed: too large (413) or malformed (400 as 422).
+func badForm(err error) error {
+	var tooLarge *http.MaxBytesError
+	if errors.As(err, &tooLarge) {
+		return err
+	}
+	return Invalid(FieldError{Message: "the form could not be read"})
+}
+
+// localPath keeps next only when it is a path on this site ("/…", not "//host" or
+// "/\host", which browsers treat as another origin).
+func localPath(next string) string {
+	if !strings.HasPrefix(next, "/") || strings.HasPrefix(next, "//") || strings.HasPrefix(next, "/\\") ||
+		strings.ContainsAny(next, "\r\n\t") || len(next) > 2000 || strings.HasPrefix(next, "/login") {
+		return ""
+	}
+	return next
+}
+
+// loginKeys are the limiter's keys of an attempt: the client IP, then the name.
+// The IP is the connection's peer: behind a reverse proxy all clients share the
+// proxy's address (X-Forwarded-For is not trusted; it is easy to forge).
+func loginKeys(r *http.Request, name string) []string {
+	ip, _, err := net.SplitHostPort(r.RemoteAddr)
+	if err != nil {
+		ip = r.RemoteAddr
+	}
+	if len(name) > 64 {
+		name = name[:64]
+	}
+	return []string{"ip:" + ip, "user:" + name}
+}
+
+// loginLimiter counts failed logins per key in a sliding window. Its zero value is
+// ready. It lives in this process only: with several instances each one counts its
+// own failures.
+type loginLimiter struct {
+	mu    sync.Mutex
+	fails map[string][]time.Time // failures within the window, oldest first
+}
+
+func (l *loginLimiter) recent(key string, now time.Time) []time.Time {
+	ts := l.fails[key]
+	i := 0
+	for i < len(ts) && now.Sub(ts[i]) >= loginWindow {
+		i++
+	}
+	if i == len(ts) {
+		delete(l.fails, key)
+		return nil
+	}
+	ts = ts[i:]
+	l.fails[key] = ts
+	return ts
+}
+
+// retryAfter is how long until another attempt is allowed, 0 when it is now.
+func (l *loginLimiter) retryAfter(now time.Time, keys ...string) time.Duration {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	var wait time.Duration
+	for _, k := range keys {
+		if ts := l.recent(k, now); len(ts) >= loginMaxFailures {
+			wait = max(wait, ts[len(ts)-loginMaxFailures].Add(loginWindow).Sub(now))
+		}
+	}
+	return wait
+}
+
+// fail records a failed attempt under every key.
+func (l *loginLimiter) fail(now time.Time, keys ...string) {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	if l.fails == nil {
+		l.fails = map[string][]time.Time{}
+	}
+	if len(l.fails) >= loginMaxKeys {
+		for k := range l.fails {
+			l.recent(k, now) // drops keys with nothing left in the window
+		}
+		for k := range l.fails { // still full: forget arbitrary keys
+			if len(l.fails) < loginMaxKeys {
+				break
+			}
+			delete(l.fails, k)
+		}
+	}
+	for _, k := range keys {
+		ts := append(l.recent(k, now), now)
+		if len(ts) > loginMaxFailures {
+			ts = ts[len(ts)-loginMaxFailures:]
+		}
+		l.fails[k] = ts
+	}
+}
+
+// reset forgets a key's failures (after a successful login).
+func (l *loginLimiter) reset(key string) {
+	l.mu.Lock()
+	defer l.mu.Unlock()
+	delete(l.fails, key)
+}
