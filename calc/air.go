@@ -89,3 +89,19 @@ func einsteinD(x float64) (float64, float64) {
 	v := x * x * e * id * id
 	return v, v * (2 - x*(1+e)*id)
 }
+
+// dryAirRough is dryAirD with cp fixed at 1007 J/kg·K (its value near room temperature),
+// which spares the two exponentials of the vibrational terms; for the starting guess only.
+func dryAirRough(tC float64) (airProps, airSlopes) {
+	t := tC + kelvin
+	it := 1 / t
+	tr := t / 273.15
+	is := 1 / (t + 110.4)
+	mu := 1.716e-5 * tr * math.Sqrt(tr) * 383.55 * is
+	k := 1.2863778e-3 + 8.8128307e-5*t - 2.3148287e-8*t*t
+	ik := 1 / k
+	dlnMu := 1.5*it - is
+	dlnK := (8.8128307e-5 - 2*2.3148287e-8*t) * ik
+	return airProps{rho: airPressure / airR * it, cp: 1007, k: k, mu: mu, nu: mu * t * (airR / airPressure), pr: mu * 1007 * ik, beta: it},
+		airSlopes{k: dlnK, nu: dlnMu + it, pr: dlnMu - dlnK, beta: -it}
+}

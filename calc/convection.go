@@ -14,6 +14,20 @@ func NuCylinderNatural(ra, pr float64) float64 {
 	return n * n
 }
 
+// churchillChuAt is churchillChu, or with rough the Prandtl factor taken at Pr 0.71 (for
+// the starting guess only).
+func churchillChuAt(ra, pr, c float64, rough bool) (term, w float64) {
+	if !rough {
+		return churchillChu(ra, pr, c)
+	}
+	// [1 + (c/0.71)^(9/16)]^(−8/27) and u/(1 + u), computed for the two constants.
+	f, w := 0.830173818394533, 0.466424984887558 // c = 0.559
+	if c != 0.559 {
+		f, w = 0.8382950252598117, 0.4486028715529073 // c = 0.492
+	}
+	return 0.387 * math.Sqrt(math.Cbrt(ra)) * f, w
+}
+
 // churchillChu returns the Rayleigh term of the Churchill–Chu correlations,
 // 0.387 Ra^(1/6) / [1 + (c/Pr)^(9/16)]^(8/27), and w = u/(1 + u) with u = (c/Pr)^(9/16),
 // which the analytic slope needs. The powers are taken by roots where they can be:

@@ -216,7 +216,7 @@ func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 	for i := range p.states {
 		p.states[i].MeanC = (fluid + ts) / 2
 	}
-	for range guessPasses {
+	for pass := range guessPasses {
 		rin := 0.0 // per path unit
 		for _, g := range p.fixedG() {
 			rin += 1 / g
@@ -226,8 +226,14 @@ func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 			rin += 1 / (l.s * k)
 		}
 		// area·(F + S·(x − ts)) = (fluid − x)/rin, F and S the surface flux and slope at ts.
-		sf := p.surf.exchange(ts, air)
-		x := (fluid/rin - p.area*(sf.flux-sf.slope*ts)) / (1/rin + p.area*sf.slope)
+		var flux, slope float64
+		if pass == 0 { // from the rough start, rough properties lose nothing
+			flux, slope = p.surf.roughExchange(ts, air)
+		} else {
+			sf := p.surf.exchange(ts, air)
+			flux, slope = sf.flux, sf.slope
+		}
+		x := (fluid/rin - p.area*(flux-slope*ts)) / (1/rin + p.area*slope)
 		if !(x > lo && x < hi) {
 			x = (lo + hi) / 2
 		}

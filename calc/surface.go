@@ -42,7 +42,7 @@ func (s *surface) exchange(ts float64, air Air) surfState {
 	if s.fixed > 0 {
 		return surfState{flux: s.fixed * dt, slope: s.fixed, hConv: s.fixed}
 	}
-	hc, g, note := s.hConvD(ts, air)
+	hc, g, note := s.hConvD(ts, air, false)
 	qr := RadiationFlux(s.emit, ts, air.SurroundingsC)
 	t := ts + kelvin
 	st := surfState{
@@ -62,17 +62,25 @@ func (s *surface) exchange(ts float64, air Air) surfState {
 // hConv is the convective coefficient at surface temperature ts: natural convection,
 // forced convection when there is wind, mixed as (h_n³ + h_f³)^(1/3).
 func (s *surface) hConv(ts float64, air Air) (float64, string) {
-	h, _, note := s.hConvD(ts, air)
+	h, _, note := s.hConvD(ts, air, false)
 	return h, note
 }
 
 // hConvD returns hConv and g = (ts − Ta)·dh/dts, the analytic derivative of the
 // coefficient (film properties included) times ΔT, so that d(h·ΔT)/dts = h + g stays
 // finite at ΔT = 0. Quantities named g… are ΔT·d(…)/dts; for logarithms, ΔT·d ln(…)/dts.
-func (s *surface) hConvD(ts float64, air Air) (h, g float64, note string) {
+// rough takes the film's Pr-dependent terms at Pr 0.71 (see roughExchange) and words no
+// notes.
+func (s *surface) hConvD(ts float64, air Air, rough bool) (h, g float64, note string) {
 	dT := ts - air.TempC
 	film := (ts + air.TempC) / 2
-	p, sl := dryAirD(film)
+	var p airProps
+	var sl airSlopes
+	if rough {
+		p, sl = dryAirRough(film)
+	} else {
+		p, sl = dryAirD(film)
+	}
 	dt := math.Abs(dT)
 	hot := ts > air.TempC
 	grPerL3 := gravity * p.beta * dt / (p.nu * p.nu) // Gr = grPerL3 · L³
@@ -86,17 +94,17 @@ func (s *surface) hConvD(ts float64, air Air) (h, g float64, note string) {
 	switch s.kind {
 	case surfCylH:
 		ra = grPerL3 * s.d * s.d * s.d * p.pr
-		t, w := churchillChu(ra, p.pr, 0.559)
+		t, w := churchillChuAt(ra, p.pr, 0.559, rough)
 		n := 0.60 + t
 		hn = n * n * p.k / s.d
 		gn = hn * (2*t*(gRa+w*gPr)/(6*n) + gK)
-		if ra > 0 && (ra < 1e-5 || ra > 1e12) {
+		if ra > 0 && (ra < 1e-5 || ra > 1e12) && !rough {
 			note = fmt.Sprintf("natural convection Ra_D %.2g outside the Churchill–Chu horizontal-cylinder range 1e-5…1e12; extrapolated", ra)
 		}
 	case surfCylV, surfPlateV:
 		gr := grPerL3 * s.l * s.l * s.l
 		ra = gr * p.pr
-		t, w := churchillChu(ra, p.pr, 0.492)
+		t, w := churchillChuAt(ra, p.pr, 0.492, rough)
 		n := 0.825 + t
 		nu := n * n
 		gNu := nu * 2 * t * (gRa + w*gPr) / (6 * n)
@@ -107,7 +115,7 @@ func (s *surface) hConvD(ts float64, air Air) (h, g float64, note string) {
 		}
 		hn = nu * p.k / s.l
 		gn = hn*gK + gNu*p.k/s.l
-		if ra > 1e12 {
+		if ra > 1e12 && !rough {
 			note = fmt.Sprintf("natural convection Ra_L %.2g above the Churchill–Chu vertical-plate range (1e12); extrapolated", ra)
 		}
 	case surfPlateUp, surfPlateDown:
@@ -120,13 +128,13 @@ func (s *surface) hConvD(ts float64, air Air) (h, g float64, note string) {
 			} else {
 				gn = hn * (gRa/3 + gK)
 			}
-			if ra > 1e11 {
+			if ra > 1e11 && !rough {
 				note = fmt.Sprintf("natural convection Ra %.2g above the horizontal-plate range (1e11); extrapolated", ra)
 			}
 		} else {
 			hn = NuPlateDownNatural(ra) * p.k / s.l
 			gn = hn * (gRa/4 + gK)
-			if ra > 1e10 {
+			if ra > 1e10 && !rough {
 				note = fmt.Sprintf("natural convection Ra %.2g above the horizontal-plate range (1e10); extrapolated", ra)
 			}
 		}
@@ -149,4 +157,18 @@ func (s *surface) hConvD(ts float64, air Air) (h, g float64, note string) {
 		g = (hn*hn*gn + hf*hf*gf) / (h * h)
 	}
 	return h, g, note
+}
+
+// roughExchange is exchange with the film's Pr-dependent terms taken at Pr 0.71 (air's
+// heat capacity at a fixed 1007 J/kg·K, and the Churchill–Chu Prandtl factor at Pr 0.71):
+// within about 1 % of exchange and a good deal cheaper. It serves only the first pass of
+// the starting guess, which is corrected by every step after it.
+func (s *surface) roughExchange(ts float64, air Air) (flux, slope float64) {
+	dt := ts - air.TempC
+	if s.fixed > 0 {
+		return s.fixed * dt, s.fixed
+	}
+	hc, g, _ := s.hConvD(ts, air, true)
+	t := ts + kelvin
+	return hc*dt + RadiationFlux(s.emit, ts, air.SurroundingsC), hc + g + 4*s.emit*StefanBoltzmann*t*t*t
 }

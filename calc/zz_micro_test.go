@@ -15,7 +15,7 @@ func BenchmarkZZM(b *testing.B) {
 	b.Run("hConvD", func(b *testing.B) {
 		ts := 35.0
 		for b.Loop() {
-			h, g, _ := s.hConvD(ts, air)
+			h, g, _ := s.hConvD(ts, air, false)
 			zzSink += h + g
 			ts += 1e-9
 		}

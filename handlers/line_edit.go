@@ -95,6 +95,9 @@ func (s *Server) lineView(c *lineCtx, st *formState, res web.LineResults) web.Li
 	v := web.LineFormView{Assets: s.assets.urls, Title: title, ProjectName: c.p.Name, ProjectURL: c.projectURL(),
 		Action: c.lineURL(), ResultsURL: c.resultsURL(), EntryForm: st.view(), LayerRows: layerRows(st), Results: res,
 		Units: map[string]string{"layers.thickness_mm": units.Label(units.Length, c.sys)}}
+	if c.line.ID != 0 {
+		v.SavedURL = c.lineURL()
+	}
 	for _, f := range lineNumFields {
 		v.Units[f.Key] = f.unitLabel(c.sys)
 	}
