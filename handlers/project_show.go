@@ -305,7 +305,7 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 		Assets: s.assets.urls, ID: p.ID, Name: p.Name, Client: p.Client, Site: p.Site,
 		UnitsName:  map[string]string{"si": "SI", "us": "US customary"}[p.Units],
 		NewLineURL: fmt.Sprintf("/projects/%d/lines/new", p.ID), EditURL: fmt.Sprintf("/projects/%d/edit", p.ID),
-		BaseURL: fmt.Sprintf("/projects/%d", p.ID),
+		BaseURL:     fmt.Sprintf("/projects/%d", p.ID),
 		TotalLength: units.FormatUnit(units.LongLength, sys, totalLen), TotalHeat: units.FormatUnit(units.HeatFlow, sys, totalQ),
 		LineCount: len(rows),
 	}
