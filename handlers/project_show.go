@@ -286,7 +286,7 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 	}
 	sys := units.System(p.Units)
 	rows := make([]listRow, len(views))
-	var totalLen, totalQ float64
+	var totalLen, totalLoss, totalGain float64
 	counts := map[string]int{}
 	for i, lv := range views {
 		rows[i] = buildListRow(p.ID, lv, sys, nameLookup{lib})
@@ -294,7 +294,12 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 			totalLen += *lv.Effective.LengthM
 		}
 		if o := lv.Result.Output; o != nil && o.HeatFlowW != nil {
-			totalQ += *o.HeatFlowW
+			// Hot lines lose heat and cold lines gain it: two plant loads, never netted.
+			if q := *o.HeatFlowW; q >= 0 {
+				totalLoss += q
+			} else {
+				totalGain -= q
+			}
 		}
 		for _, f := range rows[i].view.Flags {
 			counts[f.Key]++
@@ -306,7 +311,8 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 		UnitsName:  map[string]string{"si": "SI", "us": "US customary"}[p.Units],
 		NewLineURL: fmt.Sprintf("/projects/%d/lines/new", p.ID), EditURL: fmt.Sprintf("/projects/%d/edit", p.ID),
 		BaseURL:     fmt.Sprintf("/projects/%d", p.ID),
-		TotalLength: units.FormatUnit(units.LongLength, sys, totalLen), TotalHeat: units.FormatUnit(units.HeatFlow, sys, totalQ),
+		TotalLength: units.FormatUnit(units.LongLength, sys, totalLen), TotalHeat: units.FormatUnit(units.HeatFlow, sys, totalLoss) + " loss",
+		TotalGain: units.FormatUnit(units.HeatFlow, sys, totalGain) + " gain",
 		LineCount: len(rows),
 	}
 	for _, c := range lineColumns {
