@@ -53,7 +53,7 @@ func Analyse(in Input, r Resolver) (*Output, error) {
 	if err != nil {
 		return nil, err
 	}
-	a := &analyser{l: l}
+	a := analyser{l: l, out: new(Output)} // on this stack: only the answer is kept
 	return a.run()
 }
 
@@ -61,14 +61,13 @@ func Analyse(in Input, r Resolver) (*Output, error) {
 // and thicknesses never solve twice.
 type analyser struct {
 	l *line
-	// Solves of this analysis by key: the first len(memoBuf) in memo, searched linearly
+	// Solves of this analysis by key: the first len(memo) in memo, searched linearly
 	// (a line needs about ten), any more in cache (made when needed).
-	memo    []memoEntry
-	memoBuf [12]memoEntry
-	cache   map[solveKey]calc.Result
-	layers  []calc.Layer // reused by system for the sized layer's thicknesses
-	nums    []float64    // backing of num
-	out     Output
+	memo  [10]memoEntry
+	nMemo int
+	cache map[solveKey]calc.Result
+	nums  []float64 // backing of num
+	out   *Output   // the answer being built (set by Analyse; needed by run, not by solve or econBasis)
 }
 
 type memoEntry struct {
@@ -109,9 +108,9 @@ func (a *analyser) system(tMM float64) calc.System {
 	// calc.Solve keeps nothing of the system it is given, so one layer buffer serves
 	// every sized system of the analysis.
 	s := l.base
-	a.layers = append(a.layers[:0], l.base.Layers...)
-	a.layers[n-1].Thickness = tMM / 1000 * l.installed[n-1]
-	s.Layers = a.layers
+	l.sized = append(l.sized[:0], l.base.Layers...)
+	l.sized[n-1].Thickness = tMM / 1000 * l.installed[n-1]
+	s.Layers = l.sized
 	return s
 }
 
@@ -135,7 +134,7 @@ func (a *analyser) systemKey(tMM float64) float64 {
 func (a *analyser) solve(tMM, fluidC float64, air calc.Air) (calc.Result, error) {
 	tMM = a.systemKey(tMM)
 	k := solveKey{air: air, fluid: fluidC, tMM: tMM}
-	for i := range a.memo {
+	for i := range a.nMemo {
 		if a.memo[i].key == k {
 			return a.memo[i].res, nil
 		}
@@ -148,10 +147,9 @@ func (a *analyser) solve(tMM, fluidC float64, air calc.Air) (calc.Result, error)
 		return r, fmt.Errorf("heat balance: %w", err)
 	}
 	switch {
-	case a.memo == nil:
-		a.memo = append(a.memoBuf[:0], memoEntry{k, r})
-	case len(a.memo) < cap(a.memo):
-		a.memo = append(a.memo, memoEntry{k, r})
+	case a.nMemo < len(a.memo):
+		a.memo[a.nMemo] = memoEntry{k, r}
+		a.nMemo++
 	default:
 		if a.cache == nil {
 			a.cache = map[solveKey]calc.Result{}
@@ -165,7 +163,7 @@ func (a *analyser) solve(tMM, fluidC float64, air calc.Air) (calc.Result, error)
 // blocks instead of taking one allocation each.
 func (a *analyser) num(v float64) *float64 {
 	if len(a.nums) == cap(a.nums) {
-		a.nums = make([]float64, 0, 32)
+		a.nums = make([]float64, 0, 48) // an answer has about forty
 	}
 	a.nums = append(a.nums, v)
 	return &a.nums[len(a.nums)-1]
@@ -181,7 +179,7 @@ func (a *analyser) numRound(p *float64, d int) *float64 {
 
 func (a *analyser) run() (*Output, error) {
 	l := a.l
-	o := &a.out
+	o := a.out
 	o.MethodVersion = calc.MethodVersion
 	o.Geometry = l.in.Geometry
 	o.OperatingTempC = round(l.opC, 3)
@@ -228,7 +226,7 @@ func (a *analyser) run() (*Output, error) {
 }
 
 func (a *analyser) shapeHeatBalance(main, bare calc.Result) {
-	l, o := a.l, &a.out
+	l, o := a.l, a.out
 	if !l.shape.IsFlat() {
 		o.HeatFlowWPerM = a.num(round(main.HeatFlowPerM, 4))
 		o.BareHeatFlow = a.num(round(bare.HeatFlowPerM, 4))
@@ -293,7 +291,7 @@ func (a *analyser) pipeMaterialCautions() {
 // dewPoint reports the dew (or frost) point and the margin of the coldest surface at
 // the condensation conditions, whenever a humidity is known.
 func (a *analyser) dewPoint() error {
-	l, o := a.l, &a.out
+	l, o := a.l, a.out
 	set := l.condensation
 	if set.rh == nil {
 		return nil
@@ -338,7 +336,7 @@ const runSegments = 10
 
 // alongRun gives the outlet temperature (with flow) or the condensate load (steam).
 func (a *analyser) alongRun(main calc.Result) error {
-	l, o := a.l, &a.out
+	l, o := a.l, a.out
 	if l.steamAbsPa > 0 && l.fluid == "steam" {
 		o.SteamSatTempC = a.num(round(l.opC, 3))
 		hfg, err := calc.SteamLatentHeat(l.steamAbsPa)
@@ -394,7 +392,7 @@ func (a *analyser) freezeApplies() bool {
 }
 
 func (a *analyser) freezeTimes() error {
-	l, o := a.l, &a.out
+	l, o := a.l, a.out
 	if !a.freezeApplies() {
 		if l.crit.freezeHours != nil {
 			l.assume("freeze protection: the freeze conditions are not below 0 °C (or the water starts at or below 0 °C), so nothing to size")
@@ -451,8 +449,8 @@ func (a *analyser) freezeHours(tMM float64) (float64, float64, error) {
 }
 
 func (a *analyser) cautions() {
-	l, o := a.l, &a.out
-	o.Cautions = []string{Caution}
+	l, o := a.l, a.out
+	o.Cautions = append(make([]string, 0, 4), Caution) // room for every caution below
 	if l.opC > l.crit.maxSurfaceC {
 		o.Cautions = append(o.Cautions, "Personnel protection: a surface at the limit can still burn on long contact; "+
 			"public and healthcare areas often need lower limits, and guards are an alternative.")

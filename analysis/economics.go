@@ -18,6 +18,13 @@ const (
 	defaultLife       = 20
 )
 
+// The assumptions that state the fixed defaults, worded once.
+var (
+	assumeDefaultEfficiency = "economics: heating plant efficiency " + fmtF(defaultEfficiency, 2) + " (default)"
+	assumeDefaultCOP        = "economics: cooling plant COP " + fmtF(defaultCOP, 1) + " (default)"
+	assumeDefaultHours      = "economics: " + strconv.Itoa(defaultHours) + " operating hours a year (default)"
+)
+
 // econBasis resolves the economics block into a calc.EconBasis.
 func (a *analyser) econBasis() calc.EconBasis {
 	l := a.l
@@ -41,17 +48,18 @@ func (a *analyser) econBasis() calc.EconBasis {
 		b.Conversion = *e.COP
 	case heating:
 		b.Conversion = defaultEfficiency
-		l.assumeText("economics: heating plant efficiency " + fmtF(defaultEfficiency, 2) + " (default)")
+		l.assumeText(assumeDefaultEfficiency)
 	default:
 		b.Conversion = defaultCOP
-		l.assumeText("economics: cooling plant COP " + fmtF(defaultCOP, 1) + " (default)")
+		l.assumeText(assumeDefaultCOP)
 	}
 	if e.HoursPerYear == nil {
-		l.assumeText("economics: " + strconv.Itoa(defaultHours) + " operating hours a year (default)")
+		l.assumeText(assumeDefaultHours)
 	}
 	if e.DiscountRate == nil || e.EscalationRate == nil || e.LifeYears == nil {
-		l.assumeText("economics: discount " + fmtF(100*b.DiscountRate, 1) + " %, energy escalation " + fmtF(100*b.EscalationRate, 1) +
-			" %, life " + strconv.Itoa(b.LifeYears) + " years (defaults where not given)")
+		var buf [128]byte
+		l.assumeText(words{buf[:0]}.s("economics: discount ").f(100*b.DiscountRate, 1).s(" %, energy escalation ").
+			f(100*b.EscalationRate, 1).s(" %, life ").i(b.LifeYears).s(" years (defaults where not given)").String())
 	}
 	if e.CO2KgPerKWh == nil {
 		l.assume("economics: no CO2 factor given, CO2 reported as 0")
@@ -81,7 +89,7 @@ func (a *analyser) economicsBare() error {
 // economics prices each candidate thickness at the economics conditions and finds the
 // economic thickness (least life-cycle cost, bare included) when installed costs are known.
 func (a *analyser) economics(cands []float64) error {
-	l, o := a.l, &a.out
+	l, o := a.l, a.out
 	e := l.in.Economics
 	if e == nil {
 		if l.crit.economic {
@@ -91,8 +99,7 @@ func (a *analyser) economics(cands []float64) error {
 		return nil
 	}
 	basis := a.econBasis()
-	costs := slices.Clone(e.InstalledCostPerM)
-	slices.SortFunc(costs, func(x, y CostPoint) int {
+	byThickness := func(x, y CostPoint) int {
 		switch {
 		case x.ThicknessMM < y.ThicknessMM:
 			return -1
@@ -100,7 +107,12 @@ func (a *analyser) economics(cands []float64) error {
 			return 1
 		}
 		return 0
-	})
+	}
+	costs := e.InstalledCostPerM // only read; sorted in a copy when given out of order
+	if !slices.IsSortedFunc(costs, byThickness) {
+		costs = slices.Clone(costs)
+		slices.SortFunc(costs, byThickness)
+	}
 	thick := cands
 	switch {
 	case len(costs) > 0:
@@ -117,8 +129,13 @@ func (a *analyser) economics(cands []float64) error {
 	if err != nil {
 		return err
 	}
-	ec := make([]calc.EconCandidate, len(thick))
-	surf := make([]float64, len(thick))
+	var ecBuf [16]calc.EconCandidate // the common case, without allocations
+	var surfBuf [16]float64
+	ec, surf := ecBuf[:0], surfBuf[:0]
+	if len(thick) > len(ecBuf) {
+		ec, surf = make([]calc.EconCandidate, 0, len(thick)), make([]float64, 0, len(thick))
+	}
+	ec, surf = ec[:len(thick)], surf[:len(thick)]
 	for i, t := range thick {
 		r, err := a.solve(t, l.opC, set)
 		if err != nil {

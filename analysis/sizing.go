@@ -9,14 +9,25 @@ import (
 	"lagwright/catalog"
 )
 
-// criterion is one sizing criterion: its output key and a test of one thickness.
+// criterion is one sizing criterion: its output key (its thickness goes to setSizing); meets
+// tests one thickness against it and unmet says why nothing meets it. (Plain data, no
+// closures: the analyser stays on its caller's stack.)
 type criterion struct {
+	kind  critKind
 	key   string
 	label string
-	dst   **float64
-	meets func(tMM float64) (bool, error)
-	unmet func() string // why nothing meets it, in words (only worded when needed)
+	dew   float64 // condensation: the dew point at its conditions, °C
 }
+
+type critKind int
+
+const (
+	critPersonnel critKind = iota
+	critCondensation
+	critMaxHeatFlow
+	critMaxTempChange
+	critFreeze
+)
 
 // candidates are the thicknesses the sized layer may take, ascending.
 func (a *analyser) candidates() []float64 {
@@ -39,7 +50,7 @@ func (a *analyser) candidates() []float64 {
 // size judges every criterion at its own conditions, each by bisection over the
 // candidate thicknesses (monotone criteria), and picks the governing one.
 func (a *analyser) size() error {
-	l, o := a.l, &a.out
+	l, o := a.l, a.out
 	o.Sizing.LayersProposed = []LayerPlan{}
 	o.Sizing.Unmet = []string{}
 	o.Economics = []EconomicsRow{}
@@ -52,18 +63,19 @@ func (a *analyser) size() error {
 	}
 	cands := a.candidates()
 	o.Sizing.Candidates = cands
-	crits := a.criteria()
-	for _, c := range crits {
-		t, found, err := thinnest(cands, c.meets)
+	crits, n := a.criteria()
+	for i := range n {
+		c := &crits[i]
+		t, found, err := thinnest(cands, func(t float64) (bool, error) { return a.meets(c, t) })
 		if err != nil {
 			return fmt.Errorf("%s: %w", c.label, err)
 		}
 		if !found {
 			o.Sizing.Unmet = append(o.Sizing.Unmet, c.key)
-			l.warn("%s: %s", c.label, c.unmet())
+			l.warn("%s: %s", c.label, a.unmet(c))
 			continue
 		}
-		*c.dst = a.num(t)
+		a.setSizing(c.kind, a.num(t))
 	}
 	if err := a.energyCode(cands); err != nil {
 		return err
@@ -109,84 +121,109 @@ func thinnest(cands []float64, meets func(float64) (bool, error)) (float64, bool
 	return cands[hi], true, nil
 }
 
-// criteria lists the criteria switched on for this line.
-func (a *analyser) criteria() []criterion {
-	l, s := a.l, &a.out.Sizing
+// criteria lists the criteria switched on for this line: the first n of list.
+func (a *analyser) criteria() (list [5]criterion, n int) {
+	l := a.l
 	k := l.crit
-	var out []criterion
+	add := func(c criterion) {
+		list[n] = c
+		n++
+	}
 	if k.personnel {
-		set := l.personnel
-		out = append(out, criterion{key: "personnel_protection", label: "personnel protection", dst: &s.PersonnelProtectionMM,
-			meets: func(t float64) (bool, error) {
-				r, err := a.solve(t, l.opC, set.air)
-				return hottest(r) <= k.maxSurfaceC, err
-			},
-			unmet: func() string {
-				return fmt.Sprintf("no available thickness keeps the surface at or below %.0f °C; consider a guard or a different jacket", k.maxSurfaceC)
-			}})
+		add(criterion{kind: critPersonnel, key: "personnel_protection", label: "personnel protection"})
 	}
 	if k.condensation {
 		set := l.condensation
 		dp, _ := calc.DewPoint(set.air.TempC, *set.rh)
-		msg := func() string {
-			if *set.rh > 88 {
-				return fmt.Sprintf("at %.0f %% relative humidity the air is close to saturation: no practical thickness prevents condensation; "+
-					"control the humidity, or accept and manage condensation", *set.rh)
-			}
-			return "no available thickness keeps the surface above the dew point plus margin"
-		}
-		out = append(out, criterion{key: "condensation", label: "condensation control", dst: &s.CondensationMM,
-			meets: func(t float64) (bool, error) {
-				r, err := a.solve(t, l.opC, set.air)
-				return coldest(r) >= dp+k.dewMarginK, err
-			}, unmet: msg})
+		add(criterion{kind: critCondensation, key: "condensation", label: "condensation control", dew: dp})
 		if *set.rh > 88 {
 			l.warn("relative humidity above about 88 %%: the thickness needed to prevent condensation grows without bound as the air nears saturation")
 		}
 	}
 	if k.maxHeatFlow != nil {
-		out = append(out, criterion{key: "max_heat_flow", label: "maximum heat flow", dst: &s.MaxHeatFlowMM,
-			meets: func(t float64) (bool, error) {
-				r, err := a.solve(t, l.opC, l.design.air)
-				q := r.HeatFlowPerM
-				if l.shape.IsFlat() {
-					q = r.HeatFlux
-				}
-				return math.Abs(q) <= *k.maxHeatFlow, err
-			},
-			unmet: func() string {
-				return fmt.Sprintf("no available thickness keeps the heat flow at or below %s", fmtNum(*k.maxHeatFlow))
-			}})
+		add(criterion{kind: critMaxHeatFlow, key: "max_heat_flow", label: "maximum heat flow"})
 	}
 	if k.maxTempChange != nil {
-		out = append(out, criterion{key: "max_temp_change", label: "maximum temperature change", dst: &s.MaxTempChangeMM,
-			meets: func(t float64) (bool, error) {
-				outC, err := a.outlet(t)
-				return math.Abs(l.opC-outC) <= *k.maxTempChange, err
-			},
-			unmet: func() string {
-				return fmt.Sprintf("no available thickness keeps the temperature change within %s K; raise the flow or shorten the run", fmtNum(*k.maxTempChange))
-			}})
+		add(criterion{kind: critMaxTempChange, key: "max_temp_change", label: "maximum temperature change"})
 	}
 	if k.freezeHours != nil && a.freezeApplies() {
-		out = append(out, criterion{key: "freeze", label: "freeze protection", dst: &s.FreezeMM,
-			meets: func(t float64) (bool, error) {
-				h0, hf, err := a.freezeHours(t)
-				if k.freezeBasis == "fraction" {
-					return hf >= *k.freezeHours, err
-				}
-				return h0 >= *k.freezeHours, err
-			},
-			unmet: func() string {
-				return fmt.Sprintf("no available thickness holds the water above freezing for %s h: heat tracing is needed", fmtNum(*k.freezeHours))
-			}})
+		add(criterion{kind: critFreeze, key: "freeze", label: "freeze protection"})
 	}
-	return out
+	return list, n
+}
+
+// setSizing records criterion kind's thinnest thickness.
+func (a *analyser) setSizing(kind critKind, t *float64) {
+	s := &a.out.Sizing
+	switch kind {
+	case critPersonnel:
+		s.PersonnelProtectionMM = t
+	case critCondensation:
+		s.CondensationMM = t
+	case critMaxHeatFlow:
+		s.MaxHeatFlowMM = t
+	case critMaxTempChange:
+		s.MaxTempChangeMM = t
+	case critFreeze:
+		s.FreezeMM = t
+	}
+}
+
+// meets tests the sized layer at tMM against criterion c, at the criterion's conditions.
+func (a *analyser) meets(c *criterion, tMM float64) (bool, error) {
+	l := a.l
+	k := l.crit
+	switch c.kind {
+	case critPersonnel:
+		r, err := a.solve(tMM, l.opC, l.personnel.air)
+		return hottest(r) <= k.maxSurfaceC, err
+	case critCondensation:
+		r, err := a.solve(tMM, l.opC, l.condensation.air)
+		return coldest(r) >= c.dew+k.dewMarginK, err
+	case critMaxHeatFlow:
+		r, err := a.solve(tMM, l.opC, l.design.air)
+		q := r.HeatFlowPerM
+		if l.shape.IsFlat() {
+			q = r.HeatFlux
+		}
+		return math.Abs(q) <= *k.maxHeatFlow, err
+	case critMaxTempChange:
+		outC, err := a.outlet(tMM)
+		return math.Abs(l.opC-outC) <= *k.maxTempChange, err
+	default: // critFreeze
+		h0, hf, err := a.freezeHours(tMM)
+		if k.freezeBasis == "fraction" {
+			return hf >= *k.freezeHours, err
+		}
+		return h0 >= *k.freezeHours, err
+	}
+}
+
+// unmet says in words why no available thickness meets criterion c.
+func (a *analyser) unmet(c *criterion) string {
+	l := a.l
+	k := l.crit
+	switch c.kind {
+	case critPersonnel:
+		return fmt.Sprintf("no available thickness keeps the surface at or below %.0f °C; consider a guard or a different jacket", k.maxSurfaceC)
+	case critCondensation:
+		if rh := *l.condensation.rh; rh > 88 {
+			return fmt.Sprintf("at %.0f %% relative humidity the air is close to saturation: no practical thickness prevents condensation; "+
+				"control the humidity, or accept and manage condensation", rh)
+		}
+		return "no available thickness keeps the surface above the dew point plus margin"
+	case critMaxHeatFlow:
+		return fmt.Sprintf("no available thickness keeps the heat flow at or below %s", fmtNum(*k.maxHeatFlow))
+	case critMaxTempChange:
+		return fmt.Sprintf("no available thickness keeps the temperature change within %s K; raise the flow or shorten the run", fmtNum(*k.maxTempChange))
+	default: // critFreeze
+		return fmt.Sprintf("no available thickness holds the water above freezing for %s h: heat tracing is needed", fmtNum(*k.freezeHours))
+	}
 }
 
 // energyCode builds the compliance row and the thinnest candidate that meets the code.
 func (a *analyser) energyCode(cands []float64) error {
-	l, o := a.l, &a.out
+	l, o := a.l, a.out
 	t := l.crit.energyCode
 	if t == nil {
 		return nil
@@ -220,9 +257,11 @@ func (a *analyser) energyCode(cands []float64) error {
 			return fmt.Errorf("energy-code correction: %w", err)
 		}
 		corrected = c * 1000
-		l.assumeText("energy code: k " + fmtF(kBtu, 3) + " Btu·in/h·ft²·°F at " + fmtF(row.MeanRatingF, 0) + " °F lies outside the row's " +
-			fmtF(row.KMin, 2) + "–" + fmtF(row.KMax, 2) + ", so the table thickness is corrected " +
-			"by T = r[(1 + t/r)^(K/k) − 1] with k = " + fmtF(ref, 2) + " (the " + t.RefEnd + " end)")
+		var buf [256]byte
+		l.assumeText(words{buf[:0]}.s("energy code: k ").f(kBtu, 3).s(" Btu·in/h·ft²·°F at ").f(row.MeanRatingF, 0).
+			s(" °F lies outside the row's ").f(row.KMin, 2).s("–").f(row.KMax, 2).
+			s(", so the table thickness is corrected by T = r[(1 + t/r)^(K/k) − 1] with k = ").f(ref, 2).
+			s(" (the ").s(t.RefEnd).s(" end)").String())
 	}
 	if len(l.base.Layers) > 1 {
 		l.assume("energy code: the total insulation thickness is compared, with the outermost layer's conductivity")
@@ -299,7 +338,7 @@ func (a *analyser) governing() {
 // heatTrace gives the heat-tracing load where the insulation as specified cannot hold
 // the water above freezing for the required time.
 func (a *analyser) heatTrace() error {
-	l, o := a.l, &a.out
+	l, o := a.l, a.out
 	k := l.crit
 	if k.freezeHours == nil || o.FreezeHoursTo0C == nil {
 		return nil

@@ -216,20 +216,65 @@ func FuzzRun(f *testing.F) {
 	})
 }
 
-func BenchmarkAnalyse(b *testing.B) {
-	js := []byte(`{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":180,"ambient_temp_c":20,"relative_humidity_pct":60,
+// benchLine is the line of BenchmarkAnalyse: NPS 4 at 180 °C with 2 in of mineral fiber,
+// aluminium jacket, the energy code, a maximum heat flow and six priced thicknesses.
+var benchLine = []byte(`{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":180,"ambient_temp_c":20,"relative_humidity_pct":60,
 		"length_m":50,"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":50.8}],"jacket":"aluminium_new",
 		"criteria":{"energy_code":"ashrae-90.1-2016","max_heat_flow_w_per_m":80},
 		"economics":{"energy_price_per_kwh":0.05,"installed_cost_per_m":[{"thickness_mm":25.4,"cost":30},{"thickness_mm":38.1,"cost":36},
 		{"thickness_mm":50.8,"cost":44},{"thickness_mm":63.5,"cost":52},{"thickness_mm":76.2,"cost":60},{"thickness_mm":101.6,"cost":80}]}}`)
+
+// solvesOf analyses js and counts the distinct heat balances it solved and their residual
+// evaluations.
+func solvesOf(tb testing.TB, js []byte) (solves, evals int) {
+	tb.Helper()
 	var in Input
 	if err := DecodeStrict(js, &in); err != nil {
+		tb.Fatal(err)
+	}
+	l, err := resolve(in, CatalogResolver{})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	a := analyser{l: l, out: new(Output)}
+	if _, err := a.run(); err != nil {
+		tb.Fatal(err)
+	}
+	for _, m := range a.memo[:a.nMemo] {
+		evals += m.res.Evaluations
+	}
+	for _, r := range a.cache {
+		evals += r.Evaluations
+	}
+	return a.nMemo + len(a.cache), evals
+}
+
+// The criteria and the economics share their heat balances wherever the conditions match.
+// In benchLine every criterion and the economics are judged in the design air (still), so
+// the analysis solves 9 balances (computed): the bare surface, the six priced thicknesses
+// (50.8 mm is the thickness as specified), and 12.7 and 152.4 mm, which only the bisections
+// of personnel protection and maximum heat flow probe. The energy code needs no balance.
+// Each solve takes at most 6 residual evaluations (DESIGN.md).
+func TestSolvesShared(t *testing.T) {
+	solves, evals := solvesOf(t, benchLine)
+	t.Logf("%d solves, %d residual evaluations", solves, evals)
+	if solves != 9 || evals > 6*solves {
+		t.Errorf("%d solves with %d evaluations; want 9 solves, at most 6 evaluations each", solves, evals)
+	}
+}
+
+func BenchmarkAnalyse(b *testing.B) {
+	var in Input
+	if err := DecodeStrict(benchLine, &in); err != nil {
 		b.Fatal(err)
 	}
+	solves, evals := solvesOf(b, benchLine)
 	b.ReportAllocs()
 	for b.Loop() {
 		if _, err := Analyse(in, CatalogResolver{}); err != nil {
 			b.Fatal(err)
 		}
 	}
+	b.ReportMetric(float64(solves), "solves/op")
+	b.ReportMetric(float64(evals), "evals/op")
 }

@@ -59,6 +59,8 @@ type line struct {
 	candidatesMM                                  []float64
 
 	assumptions, warnings []string
+
+	sized []calc.Layer // scratch of analyser.system: the layers with a candidate thickness
 }
 
 // criteria are the resolved sizing criteria.
@@ -99,14 +101,41 @@ func sprintf(format string, args ...any) string {
 	return fmt.Sprintf(format, args...)
 }
 
-// fmtF formats v as fmt's %.<prec>f does, through strconv (fmt itself for Inf and NaN,
-// whose spelling differs).
+// fmtF formats v as fmt's %.<prec>f does (fmt formats through strconv the same way, Inf
+// and NaN included), without fmt's machinery.
 func fmtF(v float64, prec int) string {
-	if math.IsInf(v, 0) || math.IsNaN(v) {
-		return fmt.Sprintf("%.*f", prec, v)
-	}
 	return strconv.FormatFloat(v, 'f', prec, 64)
 }
+
+// words builds one message from text and numbers in a single allocation:
+// words{}.s("k ").f(0.31, 3).s(" at ").String().
+type words struct{ b []byte }
+
+func (w words) s(text string) words { w.b = append(w.b, text...); return w }
+
+// f appends v as fmt's %.<prec>f.
+func (w words) f(v float64, prec int) words {
+	w.b = strconv.AppendFloat(w.b, v, 'f', prec, 64)
+	return w
+}
+
+// n appends v as fmtNum does.
+func (w words) n(v float64) words {
+	start := len(w.b)
+	w.b = strconv.AppendFloat(w.b, v, 'f', 6, 64)
+	for len(w.b) > start && w.b[len(w.b)-1] == '0' {
+		w.b = w.b[:len(w.b)-1]
+	}
+	if len(w.b) > start && w.b[len(w.b)-1] == '.' {
+		w.b = w.b[:len(w.b)-1]
+	}
+	return w
+}
+
+// i appends n as fmt's %d.
+func (w words) i(n int) words { w.b = strconv.AppendInt(w.b, int64(n), 10); return w }
+
+func (w words) String() string { return string(w.b) }
 
 // rangeCheck adds an error when a given value lies outside [lo, hi].
 func rangeCheck(c *errs, field string, v *float64, lo, hi float64, unit string) {
@@ -147,7 +176,9 @@ func ptr[T any](v T) *T { return &v }
 // Every problem is reported at once as FieldErrors.
 func resolve(in Input, r Resolver) (*line, error) {
 	var c errs
-	l := &line{in: in, assumptions: make([]string, 0, 24)} // a line states about twenty
+	l := new(line) // set field by field: a composite literal would copy a whole zero line
+	l.in = in
+	l.assumptions = make([]string, 0, 24) // a line states about twenty
 	resolveGeometry(l, &c)
 	resolveFluid(l, &c)
 	resolveConditions(l, &c)
@@ -300,7 +331,8 @@ func resolvePipe(l *line, c *errs) {
 			if size.Kind == catalog.PipeKind("copper") {
 				sched = "type L"
 			}
-			l.assumeText(size.Designation + ", " + sched + " wall (default) " + fmtF(wall, 2) + " mm")
+			var buf [96]byte
+			l.assumeText(words{buf[:0]}.s(size.Designation).s(", ").s(sched).s(" wall (default) ").f(wall, 2).s(" mm").String())
 		}
 	case in.PipeODmm != nil:
 		rangeCheck(c, "pipe_od_mm", in.PipeODmm, 3, 3000, "mm")
@@ -420,7 +452,8 @@ func resolveConditions(l *line, c *errs) {
 	l.design = airSet{air: calc.Air{TempC: amb, SurroundingsC: orDefault(in.SurroundingsTempC, amb), WindMS: orDefault(in.WindMS, 0)},
 		rh: in.RelativeHumidityPct}
 	if in.SurroundingsTempC == nil {
-		l.assumeText("surroundings at the ambient temperature " + fmtNum(amb) + " °C")
+		var buf [64]byte
+		l.assumeText(words{buf[:0]}.s("surroundings at the ambient temperature ").n(amb).s(" °C").String())
 	}
 	if in.WindMS == nil {
 		l.assume("still air (wind 0 m/s) at design conditions")
@@ -449,19 +482,15 @@ func resolveConditions(l *line, c *errs) {
 // conditionSet resolves one per-criterion set: absent values take the design
 // conditions, except that personnel protection and condensation default to still air.
 func conditionSet(l *line, c *errs, name string, set *ConditionSet, stillAir bool) airSet {
-	p := "conditions." + name + "."
 	out := l.design
 	if stillAir {
 		out.air.WindMS = 0
 	}
 	if set == nil {
-		if stillAir {
-			l.assumeText(name + " judged at the design conditions in still air (common practice)")
-		} else {
-			l.assumeText(name + " judged at the design conditions")
-		}
+		l.assumeText(judgedAtDesign(name, stillAir))
 		return out
 	}
+	p := "conditions." + name + "."
 	rangeCheck(c, p+"ambient_temp_c", set.AmbientTempC, -70, 80, "°C")
 	rangeCheck(c, p+"surroundings_temp_c", set.SurroundingsTempC, -100, 300, "°C")
 	rangeCheck(c, p+"wind_m_s", set.WindMS, 0, 40, "m/s")
@@ -483,6 +512,24 @@ func conditionSet(l *line, c *errs, name string, set *ConditionSet, stillAir boo
 	return out
 }
 
+// judgedAtDesign words the assumption of a condition set that takes the design
+// conditions (fixed sentences for the sets resolveConditions has: no string building).
+func judgedAtDesign(name string, stillAir bool) string {
+	switch {
+	case name == "personnel" && stillAir:
+		return "personnel judged at the design conditions in still air (common practice)"
+	case name == "condensation" && stillAir:
+		return "condensation judged at the design conditions in still air (common practice)"
+	case name == "freeze" && !stillAir:
+		return "freeze judged at the design conditions"
+	case name == "economics" && !stillAir:
+		return "economics judged at the design conditions"
+	case stillAir:
+		return name + " judged at the design conditions in still air (common practice)"
+	}
+	return name + " judged at the design conditions"
+}
+
 func resolveLayers(l *line, r Resolver, c *errs) {
 	in := l.in
 	if len(in.Layers) > maxLayers {
@@ -490,11 +537,12 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 		return
 	}
 	for i, li := range in.Layers {
-		p := "layers[" + strconv.Itoa(i) + "]."
-		if li.ThicknessMM == nil {
-			c.add(p+"thickness_mm", "is required")
-		} else {
-			positiveCheck(c, p+"thickness_mm", li.ThicknessMM, maxThicknessMM, "mm")
+		p := func() string { return "layers[" + strconv.Itoa(i) + "]." } // named on error only
+		switch t := li.ThicknessMM; {
+		case t == nil:
+			c.add(p()+"thickness_mm", "is required")
+		case *t <= 0 || *t > maxThicknessMM:
+			positiveCheck(c, p()+"thickness_mm", t, maxThicknessMM, "mm")
 		}
 		given := 0
 		for _, g := range []bool{li.Material != "", li.KWmK != nil, li.KPoints != nil} {
@@ -503,7 +551,7 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 			}
 		}
 		if given != 1 {
-			c.add(p+"material", "give exactly one of material, k_w_mk or k_points")
+			c.add(p()+"material", "give exactly one of material, k_w_mk or k_points")
 			continue
 		}
 		layer := calc.Layer{}
@@ -512,7 +560,7 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 		case li.Material != "":
 			m, ok := r.Material(li.Material)
 			if !ok {
-				c.add(p+"material", "unknown material %q", li.Material)
+				c.add(p()+"material", "unknown material %q", li.Material)
 				continue
 			}
 			layer.Name = m.Name
@@ -528,13 +576,13 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 			}
 		case li.KWmK != nil:
 			if *li.KWmK <= 0 || *li.KWmK > 10 {
-				c.add(p+"k_w_mk", "must be greater than 0 and at most 10 W/m·K")
+				c.add(p()+"k_w_mk", "must be greater than 0 and at most 10 W/m·K")
 				continue
 			}
 			layer.K = calc.KCurve{{MeanC: 20, K: *li.KWmK}}
 			l.assume("layer %d: constant k %s W/m·K at every temperature", i+1, fmtNum(*li.KWmK))
 		default:
-			if !validKPoints(c, p+"k_points", li.KPoints) {
+			if !validKPoints(c, p()+"k_points", li.KPoints) {
 				continue
 			}
 			for _, pt := range li.KPoints {
@@ -617,7 +665,8 @@ func resolveSurface(l *line, r Resolver, c *errs) {
 		l.bare.Emittance = *in.BareEmittance
 	case in.Geometry == "pipe" && l.pipeMat.Slug != "":
 		l.bare.Emittance = l.pipeMat.BareEmittance
-		l.assumeText("bare emittance " + fmtNum(l.pipeMat.BareEmittance) + " (" + strings.ToLower(l.pipeMat.Name) + ")")
+		var buf [96]byte
+		l.assumeText(words{buf[:0]}.s("bare emittance ").n(l.pipeMat.BareEmittance).s(" (").s(strings.ToLower(l.pipeMat.Name)).s(")").String())
 	default:
 		l.bare.Emittance = 0.9
 		l.assume("bare emittance 0.9 (painted or oxidised sheet metal, common practice)")

@@ -13,7 +13,7 @@ func zzCPU() int64 {
 
 func BenchmarkZZCPUAnalyse(b *testing.B) {
 	var in Input
-	if err := DecodeStrict(zzJS, &in); err != nil {
+	if err := DecodeStrict(benchLine, &in); err != nil {
 		b.Fatal(err)
 	}
 	b.ReportAllocs()
@@ -30,7 +30,7 @@ func BenchmarkZZCPUAnalyse(b *testing.B) {
 
 func BenchmarkZZCPUResolve(b *testing.B) {
 	var in Input
-	if err := DecodeStrict(zzJS, &in); err != nil {
+	if err := DecodeStrict(benchLine, &in); err != nil {
 		b.Fatal(err)
 	}
 	t0 := zzCPU()

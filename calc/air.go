@@ -71,14 +71,8 @@ func dryAirD(tC float64) (airProps, airSlopes) {
 		airSlopes{k: dlnK, nu: dlnMu + it, pr: dlnMu + dlnCp - dlnK, beta: -it}
 }
 
-// einstein is the heat capacity of one harmonic vibrational mode in units of R,
-// x²eˣ/(eˣ − 1)² with x = θv/T.
-func einstein(x float64) float64 {
-	e, _ := einsteinD(x)
-	return e
-}
-
-// einsteinD returns einstein(x) and x times its derivative with respect to x,
+// einsteinD returns the heat capacity of one harmonic vibrational mode in units of R,
+// E = x²eˣ/(eˣ − 1)² with x = θv/T, and x times its derivative with respect to x,
 // x·dE/dx = E·(2 − x(1 + e⁻ˣ)/(1 − e⁻ˣ)).
 func einsteinD(x float64) (float64, float64) {
 	if x > 700 {
@@ -90,18 +84,23 @@ func einsteinD(x float64) (float64, float64) {
 	return v, v * (2 - x*(1+e)*id)
 }
 
-// dryAirRough is dryAirD with cp fixed at 1007 J/kg·K (its value near room temperature),
-// which spares the two exponentials of the vibrational terms; for the starting guess only.
+// dryAirRough is dryAirD with cp from a quadratic in T fitted to the statistical-mechanics
+// cp above over 250…470 K (within 0.15 J/kg·K there; our fit), which spares the two
+// exponentials of the vibrational terms. For the starting guess only: away from that range
+// it is merely less close.
 func dryAirRough(tC float64) (airProps, airSlopes) {
 	t := tC + kelvin
 	it := 1 / t
 	tr := t / 273.15
 	is := 1 / (t + 110.4)
 	mu := 1.716e-5 * tr * math.Sqrt(tr) * 383.55 * is
+	x := (t - 350) / 100
+	cp := 1009.8464154208057 + x*(8.015024676789611+x*3.6086474483465425)
 	k := 1.2863778e-3 + 8.8128307e-5*t - 2.3148287e-8*t*t
 	ik := 1 / k
 	dlnMu := 1.5*it - is
+	dlnCp := (8.015024676789611 + 2*3.6086474483465425*x) / 100 / cp
 	dlnK := (8.8128307e-5 - 2*2.3148287e-8*t) * ik
-	return airProps{rho: airPressure / airR * it, cp: 1007, k: k, mu: mu, nu: mu * t * (airR / airPressure), pr: mu * 1007 * ik, beta: it},
-		airSlopes{k: dlnK, nu: dlnMu + it, pr: dlnMu - dlnK, beta: -it}
+	return airProps{rho: airPressure / airR * it, cp: cp, k: k, mu: mu, nu: mu * t * (airR / airPressure), pr: mu * cp * ik, beta: it},
+		airSlopes{k: dlnK, nu: dlnMu + it, pr: dlnMu + dlnCp - dlnK, beta: -it}
 }

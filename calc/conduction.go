@@ -35,7 +35,10 @@ type path struct {
 // init empties the path for n insulation layers.
 func (p *path) init(n int) {
 	p.ng, p.nLayer = 0, 0
-	p.states = make([]LayerState, n)
+	p.states = nil // no layers: Result.Layers stays nil, as it always was
+	if n > 0 {
+		p.states = make([]LayerState, n)
+	}
 }
 
 func (p *path) addG(g float64)       { p.g[p.ng] = g; p.ng++ }

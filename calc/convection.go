@@ -14,18 +14,19 @@ func NuCylinderNatural(ra, pr float64) float64 {
 	return n * n
 }
 
-// churchillChuAt is churchillChu, or with rough the Prandtl factor taken at Pr 0.71 (for
-// the starting guess only).
+// churchillChuAt is churchillChu, or with rough the Prandtl factor [1 + (c/Pr)^(9/16)]^(−8/27)
+// from its quadratic Taylor expansion about Pr 0.72 (within 2e-5 for Pr 0.66…0.78; our
+// expansion) and w at Pr 0.72: for the starting guess only.
 func churchillChuAt(ra, pr, c float64, rough bool) (term, w float64) {
 	if !rough {
 		return churchillChu(ra, pr, c)
 	}
-	// [1 + (c/0.71)^(9/16)]^(−8/27) and u/(1 + u), computed for the two constants.
-	f, w := 0.830173818394533, 0.466424984887558 // c = 0.559
+	f0, f1, f2, w := 0.831075024067075, 0.08935363846207522, -0.07593979600706291, 0.46446756536433514 // c = 0.559
 	if c != 0.559 {
-		f, w = 0.8382950252598117, 0.4486028715529073 // c = 0.492
+		f0, f1, f2, w = 0.8391701955747596, 0.08676437419852245, -0.07452170469601782, 0.4466576355404051 // c = 0.492
 	}
-	return 0.387 * math.Sqrt(math.Cbrt(ra)) * f, w
+	dp := pr - 0.72
+	return 0.387 * math.Sqrt(math.Cbrt(ra)) * (f0 + dp*(f1+dp*f2)), w
 }
 
 // churchillChu returns the Rayleigh term of the Churchill–Chu correlations,

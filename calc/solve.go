@@ -10,7 +10,7 @@ const (
 	solveTolK    = 1e-7 // K: |fluid-side temperature − fluid temperature| at convergence
 	solveTolTs   = 1e-6 // K: width of the surface-temperature bracket that ends the search
 	solveMaxEval = 100  // residual evaluations per path
-	guessPasses  = 2    // linearised passes of the starting guess (see guess)
+	guessCoeff   = 5.0  // W/m²·K: a typical still-air convective coefficient, for guess's first pass
 )
 
 // Solve computes the steady heat balance of sys carrying a fluid at fluidC (°C) in the
@@ -209,8 +209,11 @@ func (p *path) solve(fluid float64, air Air) (res pathResult, err error) {
 
 // guess estimates the surface temperature with cheap passes of a linearised balance: the
 // conduction as series resistances with each layer's k at its mean from the previous pass,
-// the surface exchange linearised at the current estimate (its flux and analytic slope),
-// so that each pass is a Newton step on the surface side.
+// the surface exchange linearised at the current estimate (its flux and slope), so that
+// each pass is a Newton step on the surface side. From a crude start, the first pass takes
+// a typical still-air coefficient (guessCoeff) with linearised radiation, the second the
+// rough exchange (Pr-dependent terms at Pr 0.71) and the last the exact one: the passes get
+// dearer as the estimate gets better.
 func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 	ts := air.TempC + 0.1*(fluid-air.TempC)
 	for i := range p.states {
@@ -227,11 +230,17 @@ func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 		}
 		// area·(F + S·(x − ts)) = (fluid − x)/rin, F and S the surface flux and slope at ts.
 		var flux, slope float64
-		if pass == 0 { // from the rough start, rough properties lose nothing
-			flux, slope = p.surf.roughExchange(ts, air)
-		} else {
+		switch {
+		case p.surf.fixed > 0 || guessExactLast && pass == guessPasses-1:
 			sf := p.surf.exchange(ts, air)
 			flux, slope = sf.flux, sf.slope
+		case pass == 0:
+			t1, t2 := ts+kelvin, air.SurroundingsC+kelvin
+			hr := p.surf.emit * StefanBoltzmann * (t1*t1 + t2*t2) * (t1 + t2)
+			flux = guessCoeff*(ts-air.TempC) + hr*(ts-air.SurroundingsC)
+			slope = guessCoeff + hr
+		default:
+			flux, slope = p.surf.roughExchange(ts, air)
 		}
 		x := (fluid/rin - p.area*(flux-slope*ts)) / (1/rin + p.area*slope)
 		if !(x > lo && x < hi) {
@@ -255,3 +264,5 @@ func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 	}
 	return ts
 }
+var guessPasses = 4
+var guessExactLast = true

@@ -2,6 +2,8 @@ package calc
 
 import "testing"
 
+var zzSink float64
+
 func BenchmarkZZM(b *testing.B) {
 	s := surface{kind: surfCylH, d: 0.2159, lWind: 0.2159, emit: 0.1}
 	air := Air{TempC: 20, SurroundingsC: 20}
@@ -12,11 +14,11 @@ func BenchmarkZZM(b *testing.B) {
 			ts += 1e-9
 		}
 	})
-	b.Run("hConvD", func(b *testing.B) {
+	b.Run("rough", func(b *testing.B) {
 		ts := 35.0
 		for b.Loop() {
-			h, g, _ := s.hConvD(ts, air, false)
-			zzSink += h + g
+			_, sl := s.roughExchange(ts, air)
+			zzSink += sl
 			ts += 1e-9
 		}
 	})
@@ -42,6 +44,18 @@ func BenchmarkZZM(b *testing.B) {
 		for b.Loop() {
 			t, _, _, _ := p.march(40, 60, 1)
 			zzSink += t
+		}
+	})
+	b.Run("solve", func(b *testing.B) {
+		sys := nps4System()
+		for b.Loop() {
+			Solve(sys, 180, air)
+		}
+	})
+	b.Run("validate", func(b *testing.B) {
+		sys := nps4System()
+		for b.Loop() {
+			sys.Validate()
 		}
 	})
 }

@@ -11,6 +11,7 @@ import (
 	"strings"
 	"sync"
 	"time"
+	"unicode/utf8"
 
 	"github.com/a-h/templ"
 
@@ -315,4 +316,52 @@ func (l *loginLimiter) reset(key string) {
 	l.mu.Lock()
 	defer l.mu.Unlock()
 	delete(l.fails, key)
+}
+
+// formMemory is how much of a multipart form is held in memory; the rest of an upload
+// (within the body limit) goes to a temporary file.
+const formMemory = 1 << 20
+
+// readForm parses the form of every page POST up front, so a body that is not a form
+// (bad escapes, a missing multipart boundary, a truncated upload, over 10 000 fields)
+// or a form with invalid UTF-8 or NUL characters (which PostgreSQL text cannot hold) is
+// answered 422 (413 when too large) here, whatever the handler would make of the
+// error. Handlers' own ParseForm calls then find the form parsed. The JSON API (which
+// reads its bodies itself) is left alone.
+func (s *Server) readForm(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if safeMethod(r.Method) || strings.HasPrefix(r.URL.Path, "/api/") {
+			next.ServeHTTP(w, r)
+			return
+		}
+		var err error
+		if ct := r.Header.Get("Content-Type"); strings.HasPrefix(strings.ToLower(strings.TrimSpace(ct)), "multipart/") {
+			err = r.ParseMultipartForm(formMemory)
+		} else {
+			err = r.ParseForm()
+		}
+		if err != nil {
+			s.fail(w, r, badForm(err))
+			return
+		}
+		if !cleanValues(r.PostForm) || (r.MultipartForm != nil && !cleanValues(r.MultipartForm.Value)) {
+			s.fail(w, r, Invalid(FieldError{Message: "the form holds invalid characters (not UTF-8, or NUL)"}))
+			return
+		}
+		next.ServeHTTP(w, r)
+	})
+}
+
+func cleanValues(v url.Values) bool {
+	for k, vs := range v {
+		if !utf8.ValidString(k) || strings.ContainsRune(k, 0) {
+			return false
+		}
+		for _, x := range vs {
+			if !utf8.ValidString(x) || strings.ContainsRune(x, 0) {
+				return false
+			}
+		}
+	}
+	return true
 }

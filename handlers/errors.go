@@ -99,6 +99,10 @@ func classify(err error) *Error {
 	case errors.As(err, new(*pgconn.ConnectError)):
 		// the server refused or did not answer the connection (it is down or restarting)
 		return &Error{Code: CodeUnavailable, Message: "The database is not answering; try again shortly.", Err: err}
+	case errors.As(err, &pgErr) && strings.HasPrefix(pgErr.Code, "22"):
+		// data_exception: a value the column cannot hold (a NUL in text, an out-of-range number)
+		return &Error{Code: CodeInvalid, Message: "The input holds a value the database cannot store.",
+			Fields: []FieldError{{Message: "a value is out of range or holds characters that cannot be stored"}}, Err: err}
 	case errors.Is(err, context.DeadlineExceeded):
 		return &Error{Code: CodeUnavailable, Message: "The request took too long; try again shortly.", Err: err}
 	}

@@ -28,12 +28,15 @@ func pathID(r *http.Request, name, what string) (int64, error) {
 	return id, nil
 }
 
-// scheduleInput loads a project and its lines with fresh answers, as the plain data
-// package schedule takes, and the library that names their materials and jackets.
+// scheduleInput loads a project and its lines with fresh, whole answers (less the
+// economics table), as the plain data package schedule takes, and the library that
+// names their materials and jackets: for the calculation sheet, which shows the
+// assumptions and warnings too. The schedule and its exports stream instead
+// (draftSchedule).
 //
-// Exports of big projects read the lines raw and decode them on every core; when any
-// line's stored answer is stale, it falls back to projectLines, which recomputes and
-// saves the stale ones, so the freshness rule is the one every page uses.
+// It reads the lines raw and decodes them on every core; when any line's stored
+// answer is stale, it falls back to projectLines, which recomputes and saves the stale
+// ones, so the freshness rule is the one every page uses.
 func (s *Server) scheduleInput(ctx context.Context, projectID int64) (schedule.Project, []schedule.Line, *store.Library, error) {
 	p, err := s.store.Project(ctx, projectID)
 	if err != nil {
@@ -133,13 +136,161 @@ func scheduleLine(v LineView) schedule.Line {
 	return l
 }
 
-// draftSchedule is the schedule of the current lines, not issued.
+// draftSchedule is the schedule of the current lines, not issued. The lines are
+// streamed (freshScheduleLines): a big project's answers are never held at once.
 func (s *Server) draftSchedule(ctx context.Context, projectID int64) (schedule.Schedule, error) {
-	p, lines, lib, err := s.scheduleInput(ctx, projectID)
+	p, err := s.store.Project(ctx, projectID)
 	if err != nil {
 		return schedule.Schedule{}, err
 	}
-	return schedule.Build(p, lines, lib, 0, time.Now()), nil
+	set, err := ProjectSettings(p)
+	if err != nil {
+		return schedule.Schedule{}, err
+	}
+	lib, err := s.store.Library(ctx)
+	if err != nil {
+		return schedule.Schedule{}, err
+	}
+	sp := schedule.Project{ID: p.ID, Name: p.Name, Client: p.Client, Site: p.Site, Units: units.System(p.Units), Settings: set}
+	b := schedule.NewBuilder(sp, lib, 0, time.Now())
+	if err := s.freshScheduleLines(ctx, p.ID, set, lib, b.Add); err != nil {
+		return schedule.Schedule{}, err
+	}
+	return b.Schedule(), nil
+}
+
+// scheduleBatch is how many lines travel together through freshScheduleLines.
+const scheduleBatch = 256
+
+// lineBatch is one batch of lines on its way from the database to the schedule.
+type lineBatch struct {
+	raw     []store.StreamedLine
+	lines   []schedule.Line
+	updates []store.ResultUpdate
+	err     error
+	done    chan struct{} // closed when lines, updates and err are set
+}
+
+// freshScheduleLines hands add a project's lines in order, each with a fresh answer
+// holding what the schedule reads, with the freshness rule of projectLines: a line
+// whose stored answer was computed from the same effective input, material versions
+// and method version is read back as stored, the stale ones are analysed and saved,
+// so a fresh project does no physics.
+//
+// It is a pipeline: one goroutine reads the lines in batches (the stored answers cut
+// down in the database to the parts the schedule reads, schedule.ResultPaths), one
+// decoder per core decodes and checks the batches (recomputing the stale lines), and
+// the caller's goroutine adds them in order. At most a few batches are in flight.
+func (s *Server) freshScheduleLines(ctx context.Context, projectID int64, set analysis.ProjectSettings, lib *store.Library,
+	add func(schedule.Line)) error {
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	workers := max(1, runtime.GOMAXPROCS(0))
+	work := make(chan *lineBatch)
+	ordered := make(chan *lineBatch, 2*workers)
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Go(func() {
+			for b := range work {
+				b.lines, b.updates, b.err = decodeStreamedLines(set, lib, b.raw)
+				b.raw = nil
+				close(b.done)
+			}
+		})
+	}
+	readErr := make(chan error, 1)
+	go func() {
+		defer close(ordered)
+		defer close(work)
+		readErr <- s.store.EachScheduleLines(ctx, projectID, schedule.ResultPaths(), scheduleBatch, func(raw []store.StreamedLine) error {
+			b := &lineBatch{raw: raw, done: make(chan struct{})}
+			// To a decoder first, then in line: a batch in the queue is always being decoded.
+			select {
+			case work <- b:
+			case <-ctx.Done():
+				return ctx.Err()
+			}
+			select {
+			case ordered <- b:
+			case <-ctx.Done():
+				return ctx.Err()
+			}
+			return nil
+		})
+	}()
+	var err error
+	var updates []store.ResultUpdate
+	for b := range ordered {
+		if err != nil {
+			continue // drain until the reader stops
+		}
+		<-b.done
+		if b.err != nil {
+			err = b.err
+			cancel()
+			continue
+		}
+		for _, l := range b.lines {
+			add(l)
+		}
+		updates = append(updates, b.updates...)
+	}
+	wg.Wait()
+	if rerr := <-readErr; err == nil {
+		err = rerr
+	}
+	if err != nil {
+		return err
+	}
+	// Saved after the read, so the export never needs a second connection while the
+	// first is streaming.
+	return s.store.SaveResults(ctx, updates)
+}
+
+// decodeStreamedLines decodes a batch of streamed lines and recomputes the stale ones,
+// returning the results to save for those.
+func decodeStreamedLines(set analysis.ProjectSettings, lib *store.Library, raw []store.StreamedLine) ([]schedule.Line, []store.ResultUpdate, error) {
+	lines := make([]schedule.Line, len(raw))
+	var updates []store.ResultUpdate
+	for i, r := range raw {
+		var own analysis.Input
+		var fit analysis.Fittings
+		if err := json.Unmarshal(r.Input, &own); err != nil {
+			return nil, nil, fmt.Errorf("line %d input: %w", r.ID, err)
+		}
+		if len(r.Fittings) > 0 {
+			if err := json.Unmarshal(r.Fittings, &fit); err != nil {
+				return nil, nil, fmt.Errorf("line %d fittings: %w", r.ID, err)
+			}
+		}
+		eff := set.Effective(r.Location, own, fit)
+		hash := analysis.ResultHash(eff, versions(lib, eff))
+		var st analysis.Stored
+		fresh := r.HasResult && r.ResultHash == hash
+		if fresh {
+			var err error
+			st, err = schedule.StoredFromParts(r.ResultParts)
+			fresh = err == nil
+		}
+		if !fresh {
+			out, err := analysis.Analyse(eff, lib)
+			if fe, ok := err.(analysis.FieldErrors); ok {
+				st = analysis.Stored{Errors: fe}
+			} else if err != nil {
+				return nil, nil, fmt.Errorf("line %d: %w", r.ID, err)
+			} else {
+				st = analysis.Stored{Output: out}
+			}
+			updates = append(updates, store.ResultUpdate{LineID: r.ID, Result: st.Marshal(), Hash: hash})
+		}
+		l := schedule.Line{ID: r.ID, Tag: r.Tag, Service: r.Service, Location: r.Location, Exposure: r.Exposure,
+			Notes: r.Notes, Input: eff, Fittings: fit, Output: st.Output}
+		for _, e := range st.Errors {
+			l.Errors = append(l.Errors, e.Field+": "+e.Message)
+		}
+		lines[i] = l
+	}
+	return lines, updates, nil
 }
 
 // revisionSchedule decodes an issued revision's snapshot.

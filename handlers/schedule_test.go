@@ -8,9 +8,12 @@ import (
 	"net/url"
 	"strings"
 	"testing"
+	"time"
 
 	"lagwright/analysis"
 	"lagwright/demo"
+	"lagwright/schedule"
+	"lagwright/store"
 	"lagwright/store/storetest"
 )
 
@@ -149,5 +152,92 @@ func TestScheduleRevisions(t *testing.T) {
 	long := url.Values{"note": {strings.Repeat("x", 501)}}.Encode()
 	if rec := do(t, h, "POST", base+"/schedule/revisions", strings.NewReader(long), map[string]string{"Content-Type": "application/x-www-form-urlencoded"}); rec.Code != 422 {
 		t.Errorf("issue with a long note = %d, want 422", rec.Code)
+	}
+}
+
+// withoutDate drops the CSV's "Date,…" line (the draft carries today's date).
+func withoutDate(csv string) string {
+	var out []string
+	for _, l := range strings.Split(csv, "\n") {
+		if !strings.HasPrefix(l, "Date,") {
+			out = append(out, l)
+		}
+	}
+	return strings.Join(out, "\n")
+}
+
+// The draft exports stream the lines and read only the parts of each answer that the
+// schedule shows; they give the same schedule as the whole answers do, and recompute
+// (and save) only the stale lines.
+func TestScheduleExportStreamed(t *testing.T) {
+	st := storetest.NewDB(t)
+	s, _ := newServer(t, st)
+	h := s.Routes()
+	ctx := context.Background()
+	p, err := demo.Create(ctx, st)
+	if err != nil {
+		t.Fatal(err)
+	}
+	csvPath := fmt.Sprintf("/projects/%d/schedule.csv", p.ID)
+	first := do(t, h, "GET", csvPath, nil, nil)
+	if first.Code != 200 {
+		t.Fatalf("first export = %d", first.Code)
+	}
+	// The same schedule from the whole stored answers (the calculation sheet's path).
+	sp, lines, lib, err := s.scheduleInput(ctx, p.ID)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var want strings.Builder
+	if err := schedule.WriteCSV(&want, schedule.Build(sp, lines, lib, 0, time.Now())); err != nil {
+		t.Fatal(err)
+	}
+	if withoutDate(first.Body.String()) != withoutDate(want.String()) {
+		t.Fatalf("streamed CSV differs from the CSV of the whole answers:\n%.2000s\nwant\n%.2000s", first.Body, want.String())
+	}
+
+	// Doctor two stored answers' surface temperature: one keeps its (fresh) hash and
+	// must be shown as stored; the other is stale and must be recomputed and saved.
+	stored, err := st.Lines(ctx, p.ID)
+	if err != nil || len(stored) < 2 {
+		t.Fatalf("lines: %d, %v", len(stored), err)
+	}
+	doctor := func(l store.Line, surfaceC float64) json.RawMessage {
+		var res map[string]map[string]any
+		if err := json.Unmarshal(l.Result, &res); err != nil || res["output"] == nil {
+			t.Fatalf("%s: stored result %v", l.Tag, err)
+		}
+		res["output"]["surface_temp_c"] = surfaceC
+		js, _ := json.Marshal(res)
+		return js
+	}
+	stale, fresh := stored[0], stored[1]
+	if err := st.SaveResults(ctx, []store.ResultUpdate{
+		{LineID: stale.ID, Result: doctor(stale, 987.6), Hash: "stale"},
+		{LineID: fresh.ID, Result: doctor(fresh, 1234.5), Hash: fresh.ResultHash},
+	}); err != nil {
+		t.Fatal(err)
+	}
+	doctored, err := st.Lines(ctx, p.ID)
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := do(t, h, "GET", csvPath, nil, nil).Body.String()
+	if !strings.Contains(got, "2254.1") { // 1234.5 °C in °F: the fresh line read as stored
+		t.Error("a fresh line's stored answer was not used")
+	}
+	if strings.Contains(got, "1809.7") { // 987.6 °C in °F: the stale line not recomputed
+		t.Error("a stale line's stored answer was used")
+	}
+	after, err := st.Lines(ctx, p.ID)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if after[0].ResultHash != stale.ResultHash || string(after[0].Result) != string(stale.Result) {
+		t.Errorf("stale line: saved hash %q, want %q; result saved as recomputed: %v", after[0].ResultHash, stale.ResultHash,
+			string(after[0].Result) == string(stale.Result))
+	}
+	if string(after[1].Result) != string(doctored[1].Result) {
+		t.Error("a fresh line's stored answer was rewritten")
 	}
 }

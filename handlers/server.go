@@ -78,6 +78,7 @@ func (s *Server) router() *chi.Mux {
 	r := chi.NewRouter()
 	r.Use(s.limitBody)
 	r.Use(s.authenticate)
+	r.Use(s.readForm)
 	r.NotFound(func(w http.ResponseWriter, r *http.Request) { s.fail(w, r, NotFound("page")) })
 	r.MethodNotAllowed(func(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, &Error{Code: CodeMethodNotAllowed, Message: "This address does not accept " + r.Method + " requests."})

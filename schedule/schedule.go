@@ -147,19 +147,48 @@ type Resolver = analysis.Resolver
 // Build makes the schedule of a project's lines. rev is the revision number (0 for a
 // draft) and date the date it carries.
 func Build(p Project, lines []Line, r Resolver, rev int, date time.Time) Schedule {
-	s := Schedule{Header: header(p, rev, date), Rows: make([]Row, 0, len(lines))}
-	cautions := slices.Clone(s.Header.Cautions)
+	b := NewBuilder(p, r, rev, date)
+	b.s.Rows = make([]Row, 0, len(lines))
 	for _, l := range lines {
-		s.Rows = append(s.Rows, buildRow(l, r))
-		if l.Output != nil {
-			for _, c := range l.Output.Cautions {
-				if !slices.Contains(cautions, c) {
-					cautions = append(cautions, c)
-				}
+		b.Add(l)
+	}
+	return b.Schedule()
+}
+
+// Builder makes a schedule one line at a time, in the lines' order, keeping only the
+// rows: a big project's lines (and their answers) need not be held at once. Build is
+// NewBuilder, Add for each line, then Schedule.
+type Builder struct {
+	s        Schedule
+	r        Resolver
+	cautions []string
+}
+
+// NewBuilder starts the schedule of a project: rev is the revision number (0 for a
+// draft) and date the date it carries.
+func NewBuilder(p Project, r Resolver, rev int, date time.Time) *Builder {
+	b := &Builder{s: Schedule{Header: header(p, rev, date), Rows: []Row{}}, r: r}
+	b.cautions = slices.Clone(b.s.Header.Cautions)
+	return b
+}
+
+// Add appends the row of the next line. The line's answer is not kept.
+func (b *Builder) Add(l Line) {
+	b.s.Rows = append(b.s.Rows, buildRow(l, b.r))
+	if l.Output != nil {
+		for _, c := range l.Output.Cautions {
+			if !slices.Contains(b.cautions, c) {
+				b.cautions = append(b.cautions, c)
 			}
 		}
 	}
-	s.Header.Cautions = cautions
+}
+
+// Schedule finishes the schedule: the header's cautions (the project's and every
+// line's, each once, in order of first appearance) and the totals.
+func (b *Builder) Schedule() Schedule {
+	s := b.s
+	s.Header.Cautions = b.cautions
 	s.Totals = SumRows(s.Rows)
 	return s
 }

@@ -1,10 +1,12 @@
 #!/usr/bin/env bash
-# The whole check, as CI runs it: PostgreSQL binaries present, generated templ
-# files fresh, go vet, then every test against a real PostgreSQL.
+# The whole check, as CI runs it: PostgreSQL binaries and chromium present, generated
+# templ files fresh, go vet, then every test against a real PostgreSQL (the e2e/
+# tests also drive chromium).
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
 scripts/ensure-postgres.sh
+scripts/ensure-chromium.sh
 
 echo "== templ generate (generated files must be committed and fresh)"
 go tool templ generate >/dev/null

@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"strings"
 	"time"
 
 	"github.com/jackc/pgx/v5"
@@ -134,4 +135,78 @@ func (s *Store) ScheduleLines(ctx context.Context, projectID int64) ([]ScheduleL
 		return nil, fmt.Errorf("store: schedule lines of project %d: %w", projectID, err)
 	}
 	return list, nil
+}
+
+// StreamedLine is a line as the streamed schedule exports read it: its own input and
+// fittings as raw JSON, and only the parts of its stored result that the caller named
+// (ResultParts[i] for paths[i]), so a big project's results are neither sent whole
+// nor decoded whole.
+type StreamedLine struct {
+	ID         int64
+	Tag        string
+	Service    string
+	Location   string
+	Exposure   string
+	Input      []byte
+	Fittings   []byte
+	Notes      string
+	ResultHash string
+	HasResult  bool // a result is stored (it may still be stale)
+	// ResultParts are the values at the named paths as PostgreSQL's #>> writes them:
+	// JSON text for objects and arrays, numbers and booleans as their JSON text,
+	// strings unquoted, nil for a JSON null or a missing key.
+	ResultParts [][]byte
+}
+
+// EachScheduleLines reads a project's lines in their order through one result set
+// (pgx reads the rows off the connection as they are iterated, never all at once) and
+// hands them to fn batch lines at a time; a batch's slice is fn's to keep. paths name
+// the parts of each stored result to read, e.g. {"output", "sizing", "governing"}.
+// fn's error stops the reading and is returned.
+func (s *Store) EachScheduleLines(ctx context.Context, projectID int64, paths [][]string, batch int,
+	fn func([]StreamedLine) error) error {
+	batch = max(batch, 1)
+	// The inner query detoasts each stored result once (result #> '{}' returns the whole
+	// value, decompressed); without it every path below would decompress it again.
+	var sql strings.Builder
+	sql.WriteString(`SELECT id, tag, service, location, exposure, input, fittings, notes, result_hash, r IS NOT NULL`)
+	args := []any{projectID}
+	for _, p := range paths {
+		args = append(args, p)
+		fmt.Fprintf(&sql, `, r #>> $%d::text[]`, len(args))
+	}
+	sql.WriteString(` FROM (SELECT id, position, tag, service, location, exposure, input, fittings, notes, result_hash,
+		result #> '{}'::text[] AS r FROM lines WHERE project_id = $1 OFFSET 0) l ORDER BY position, id`)
+	rows, err := s.pool.Query(ctx, sql.String(), args...)
+	if err != nil {
+		return fmt.Errorf("store: schedule lines of project %d: %w", projectID, err)
+	}
+	defer rows.Close()
+	out := make([]StreamedLine, 0, batch)
+	dest := make([]any, 10+len(paths))
+	for rows.Next() {
+		out = append(out, StreamedLine{ResultParts: make([][]byte, len(paths))})
+		l := &out[len(out)-1]
+		dest[0], dest[1], dest[2], dest[3], dest[4] = &l.ID, &l.Tag, &l.Service, &l.Location, &l.Exposure
+		dest[5], dest[6], dest[7], dest[8], dest[9] = &l.Input, &l.Fittings, &l.Notes, &l.ResultHash, &l.HasResult
+		for i := range paths {
+			dest[10+i] = &l.ResultParts[i]
+		}
+		if err := rows.Scan(dest...); err != nil {
+			return fmt.Errorf("store: schedule lines of project %d: %w", projectID, err)
+		}
+		if len(out) == batch {
+			if err := fn(out); err != nil {
+				return err
+			}
+			out = make([]StreamedLine, 0, batch)
+		}
+	}
+	if err := rows.Err(); err != nil {
+		return fmt.Errorf("store: schedule lines of project %d: %w", projectID, err)
+	}
+	if len(out) > 0 {
+		return fn(out)
+	}
+	return nil
 }
