@@ -135,8 +135,8 @@ func (a *analyser) solve(tMM, fluidC float64, air calc.Air) (calc.Result, error)
 	tMM = a.systemKey(tMM)
 	k := solveKey{air: air, fluid: fluidC, tMM: tMM}
 	for i := range a.nMemo {
-		if a.memo[i].key == k {
-			return a.memo[i].res, nil
+		if m := &a.memo[i]; m.key.tMM == k.tMM && m.key == k { // thickness first: it differs most
+			return m.res, nil
 		}
 	}
 	if r, ok := a.cache[k]; ok {

@@ -213,11 +213,11 @@ func (a *analyser) unmet(c *criterion) string {
 		}
 		return "no available thickness keeps the surface above the dew point plus margin"
 	case critMaxHeatFlow:
-		return fmt.Sprintf("no available thickness keeps the heat flow at or below %s", fmtNum(*k.maxHeatFlow))
+		return fmt.Sprintf("no available thickness keeps the heat flow at or below %s", fmtRound(*k.maxHeatFlow, 1))
 	case critMaxTempChange:
-		return fmt.Sprintf("no available thickness keeps the temperature change within %s K; raise the flow or shorten the run", fmtNum(*k.maxTempChange))
+		return fmt.Sprintf("no available thickness keeps the temperature change within %s K; raise the flow or shorten the run", fmtRound(*k.maxTempChange, 1))
 	default: // critFreeze
-		return fmt.Sprintf("no available thickness holds the water above freezing for %s h: heat tracing is needed", fmtNum(*k.freezeHours))
+		return fmt.Sprintf("no available thickness holds the water above freezing for %s h: heat tracing is needed", fmtRound(*k.freezeHours, 1))
 	}
 }
 
@@ -356,6 +356,6 @@ func (a *analyser) heatTrace() error {
 	}
 	o.HeatTraceWPerM = a.num(round(r.HeatFlowPerM*k.heatTraceFactor, 3))
 	l.assume("heat tracing holds %s °C at the freeze conditions with the insulation as specified, times a safety factor %s (our default 1.2)",
-		fmtNum(k.maintainC), fmtNum(k.heatTraceFactor))
+		fmtRound(k.maintainC, 1), fmtNum(k.heatTraceFactor))
 	return nil
 }

@@ -132,6 +132,24 @@ func (w words) n(v float64) words {
 	return w
 }
 
+// r appends v as fmtRound does, without allocating.
+func (w words) r(v float64, prec int) words {
+	start := len(w.b)
+	w.b = strconv.AppendFloat(w.b, v, 'f', prec, 64)
+	if prec > 0 {
+		for w.b[len(w.b)-1] == '0' {
+			w.b = w.b[:len(w.b)-1]
+		}
+		if w.b[len(w.b)-1] == '.' {
+			w.b = w.b[:len(w.b)-1]
+		}
+	}
+	if string(w.b[start:]) == "-0" {
+		w.b = append(w.b[:start], '0')
+	}
+	return w
+}
+
 // i appends n as fmt's %d.
 func (w words) i(n int) words { w.b = strconv.AppendInt(w.b, int64(n), 10); return w }
 
@@ -161,6 +179,19 @@ func positiveCheck(c *errs, field string, v *float64, hi float64, unit string) {
 
 func fmtNum(v float64) string {
 	return strings.TrimSuffix(strings.TrimRight(fmtF(v, 6), "0"), ".")
+}
+
+// fmtRound writes v rounded to prec decimals for a message, without trailing zeros:
+// 689.475729 → "689.5" (prec 1), 24 → "24", -0.04 → "0".
+func fmtRound(v float64, prec int) string {
+	s := fmtF(v, prec)
+	if strings.IndexByte(s, '.') >= 0 {
+		s = strings.TrimSuffix(strings.TrimRight(s, "0"), ".")
+	}
+	if s == "-0" {
+		return "0"
+	}
+	return s
 }
 
 func orDefault(p *float64, d float64) float64 {
@@ -268,7 +299,7 @@ func resolveGeometry(l *line, c *errs) {
 			sys.Height = orDefault(in.HeightM, 3)
 			sys.Width = orDefault(in.WidthM, 3)
 			if in.HeightM == nil || in.WidthM == nil {
-				l.assume("vertical surface %s m high, %s m along the wind (defaults where not given)", fmtNum(sys.Height), fmtNum(sys.Width))
+				l.assume("vertical surface %s m high, %s m along the wind (defaults where not given)", fmtRound(sys.Height, 2), fmtRound(sys.Width, 2))
 			}
 		} else {
 			l.shape = calc.FlatUp
@@ -278,7 +309,7 @@ func resolveGeometry(l *line, c *errs) {
 			sys.PlateLength = orDefault(in.PlateLengthM, 1)
 			sys.PlateWidth = orDefault(in.PlateWidthM, 1)
 			if in.PlateLengthM == nil || in.PlateWidthM == nil {
-				l.assume("horizontal surface %s m × %s m (defaults where not given)", fmtNum(sys.PlateLength), fmtNum(sys.PlateWidth))
+				l.assume("horizontal surface %s m × %s m (defaults where not given)", fmtRound(sys.PlateLength, 2), fmtRound(sys.PlateWidth, 2))
 			}
 			if in.Facing == "" {
 				l.assume("horizontal surface facing up (default)")
@@ -414,7 +445,7 @@ func resolveFluid(l *line, c *errs) {
 		l.steamAbsPa = abs
 		l.opC = t
 		l.assume("saturated steam at %s kPa gauge (%s kPa absolute at sea-level atmosphere 101.325 kPa): %.1f °C (IAPWS-IF97)",
-			fmtNum(p), fmtNum(p+101.325), t)
+			fmtRound(p, 1), fmtRound(p+101.325, 1), t)
 		if in.OperatingTempC != nil && math.Abs(*in.OperatingTempC-t) > 0.5 {
 			c.add("operating_temp_c", "does not match the saturation temperature %.1f °C at the given steam pressure; give one of the two", t)
 		}
@@ -453,7 +484,7 @@ func resolveConditions(l *line, c *errs) {
 		rh: in.RelativeHumidityPct}
 	if in.SurroundingsTempC == nil {
 		var buf [64]byte
-		l.assumeText(words{buf[:0]}.s("surroundings at the ambient temperature ").n(amb).s(" °C").String())
+		l.assumeText(words{buf[:0]}.s("surroundings at the ambient temperature ").r(amb, 1).s(" °C").String())
 	}
 	if in.WindMS == nil {
 		l.assume("still air (wind 0 m/s) at design conditions")

@@ -10,6 +10,7 @@ const (
 	solveTolK    = 1e-7 // K: |fluid-side temperature − fluid temperature| at convergence
 	solveTolTs   = 1e-6 // K: width of the surface-temperature bracket that ends the search
 	solveMaxEval = 100  // residual evaluations per path
+	guessPasses  = 3    // linearised passes of the starting guess (see guess)
 	guessCoeff   = 5.0  // W/m²·K: a typical still-air convective coefficient, for guess's first pass
 )
 
@@ -211,9 +212,10 @@ func (p *path) solve(fluid float64, air Air) (res pathResult, err error) {
 // conduction as series resistances with each layer's k at its mean from the previous pass,
 // the surface exchange linearised at the current estimate (its flux and slope), so that
 // each pass is a Newton step on the surface side. From a crude start, the first pass takes
-// a typical still-air coefficient (guessCoeff) with linearised radiation, the second the
-// rough exchange (Pr-dependent terms at Pr 0.71) and the last the exact one: the passes get
-// dearer as the estimate gets better.
+// a typical still-air coefficient (guessCoeff) with linearised radiation, the later ones the
+// rough exchange (see roughExchange: within about 1e-4 of the correlations, and much
+// cheaper), so that the Newton iteration on the exact residual starts within about a
+// millikelvin and mostly needs two evaluations.
 func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 	ts := air.TempC + 0.1*(fluid-air.TempC)
 	for i := range p.states {
@@ -231,7 +233,7 @@ func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 		// area·(F + S·(x − ts)) = (fluid − x)/rin, F and S the surface flux and slope at ts.
 		var flux, slope float64
 		switch {
-		case p.surf.fixed > 0 || guessExactLast && pass == guessPasses-1:
+		case p.surf.fixed > 0: // exact and cheap
 			sf := p.surf.exchange(ts, air)
 			flux, slope = sf.flux, sf.slope
 		case pass == 0:
@@ -264,5 +266,3 @@ func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 	}
 	return ts
 }
-var guessPasses = 4
-var guessExactLast = true

@@ -69,8 +69,7 @@ func (s *surface) hConv(ts float64, air Air) (float64, string) {
 // hConvD returns hConv and g = (ts − Ta)·dh/dts, the analytic derivative of the
 // coefficient (film properties included) times ΔT, so that d(h·ΔT)/dts = h + g stays
 // finite at ΔT = 0. Quantities named g… are ΔT·d(…)/dts; for logarithms, ΔT·d ln(…)/dts.
-// rough takes the film's Pr-dependent terms at Pr 0.71 (see roughExchange) and words no
-// notes.
+// rough takes the cheap stand-ins of roughExchange and words no notes.
 func (s *surface) hConvD(ts float64, air Air, rough bool) (h, g float64, note string) {
 	dT := ts - air.TempC
 	film := (ts + air.TempC) / 2
@@ -159,10 +158,11 @@ func (s *surface) hConvD(ts float64, air Air, rough bool) (h, g float64, note st
 	return h, g, note
 }
 
-// roughExchange is exchange with the film's Pr-dependent terms taken at Pr 0.71 (air's
-// heat capacity at a fixed 1007 J/kg·K, and the Churchill–Chu Prandtl factor at Pr 0.71):
-// within about 1 % of exchange and a good deal cheaper. It serves only the first pass of
-// the starting guess, which is corrected by every step after it.
+// roughExchange is exchange with cheap stand-ins for the costly Pr-dependent terms: air's
+// heat capacity from a quadratic fit (dryAirRough) and the Churchill–Chu Prandtl factor
+// from a quadratic expansion (churchillChuAt). Near room temperature it is within about
+// 1e-4 of exchange, at about half the cost. It serves only the starting guess: the Newton
+// iteration that follows evaluates the exact exchange.
 func (s *surface) roughExchange(ts float64, air Air) (flux, slope float64) {
 	dt := ts - air.TempC
 	if s.fixed > 0 {

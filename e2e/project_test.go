@@ -11,8 +11,8 @@ import (
 var projectPath = regexp.MustCompile(`^/projects/[0-9]+$`)
 
 // TestCreateProject creates a project in US units through the form: the list's "New
-// project" button, the form (design conditions typed in °F, since the form reads
-// every value in the chosen units), Save, the project page, and the project in the
+// project" button, the form switched to US units (design conditions typed in °F,
+// since the form reads every value in the units it is shown in), Save, the project page, and the project in the
 // list.
 func TestCreateProject(t *testing.T) {
 	a := startApp(t, handlers.Config{})
@@ -23,11 +23,14 @@ func TestCreateProject(t *testing.T) {
 	if got := p.submit("click New project", `[data-testid="new-project"]`); got != "/projects/new" {
 		t.Fatalf("New project went to %s", got)
 	}
+	// The form is in SI; its link reloads it in US units, the defaults converted.
+	p.submit("switch the form to US units", `[data-testid="switch-units"]`)
+	if v := p.value(`#settings\.criteria\.max_surface_temp_c`); v != "140" {
+		t.Errorf("touch limit default in US units = %q, want 140 (°F)", v)
+	}
 	p.typeInto(`#name`, "Chiller plant retrofit")
 	p.typeInto(`#client`, "Eastbank Hospital")
 	p.typeInto(`#site`, "Building C")
-	p.choose(`#units`, "us")
-	// The defaults on the form are SI numbers; in US units they must be retyped.
 	p.typeInto(`[name="settings.indoor.ambient_temp_c"]`, "75")
 	p.typeInto(`[name="settings.indoor.relative_humidity_pct"]`, "55")
 	p.typeInto(`[name="settings.outdoor.ambient_temp_c"]`, "95")

@@ -10,6 +10,7 @@ import (
 	"github.com/go-chi/chi/v5"
 
 	"lagwright/analysis"
+	"lagwright/schedule"
 	"lagwright/store"
 	"lagwright/units"
 )
@@ -85,20 +86,11 @@ func cmpMoney(v float64) string {
 	if math.Abs(v) < 100 {
 		return strconv.FormatFloat(v, 'f', 2, 64)
 	}
-	s := strconv.FormatFloat(math.Round(v), 'f', 0, 64)
-	neg := strings.HasPrefix(s, "-")
-	s = strings.TrimPrefix(s, "-")
-	var b strings.Builder
-	for i, r := range s {
-		if i > 0 && (len(s)-i)%3 == 0 {
-			b.WriteRune(' ')
-		}
-		b.WriteRune(r)
+	s := schedule.GroupThousands(strconv.FormatFloat(math.Round(v), 'f', 0, 64))
+	if rest, neg := strings.CutPrefix(s, "-"); neg {
+		return "−" + rest
 	}
-	if neg {
-		return "−" + b.String()
-	}
-	return b.String()
+	return s
 }
 
 func cmpMoneyPtr(p *float64) string {
@@ -118,30 +110,9 @@ func cmpYears(p *float64) string {
 	return strconv.FormatFloat(*p, 'f', 1, 64)
 }
 
-// cmpGroup puts spaces between thousands of a formatted number of 5 or more integer
-// digits ("57633" → "57 633").
-func cmpGroup(s string) string {
-	intPart, frac, _ := strings.Cut(s, ".")
-	neg := strings.HasPrefix(intPart, "-")
-	intPart = strings.TrimPrefix(intPart, "-")
-	if len(intPart) < 5 {
-		return s
-	}
-	var b strings.Builder
-	if neg {
-		b.WriteString("-")
-	}
-	for i, r := range intPart {
-		if i > 0 && (len(intPart)-i)%3 == 0 {
-			b.WriteRune(' ')
-		}
-		b.WriteRune(r)
-	}
-	if frac != "" {
-		b.WriteString("." + frac)
-	}
-	return b.String()
-}
+// cmpGroup groups the thousands of a formatted number as the schedule does
+// ("57633" → "57 633", with a narrow no-break space).
+func cmpGroup(s string) string { return schedule.GroupThousands(s) }
 
 // cmpNumber writes a plain quantity with about 3 significant digits and thousands spaces.
 func cmpNumber(v float64) string {

@@ -298,8 +298,8 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 		v.Sides = append(v.Sides, vs)
 	}
 	v.Charts = cmpCharts(sides, sys, qQty)
-	v.Warnings = main.Warnings
-	v.Assumptions = main.Assumptions
+	v.Warnings = withUSValuesAll(sys, main.Warnings)
+	v.Assumptions = withUSValuesAll(sys, main.Assumptions)
 	return v
 }
 

@@ -154,7 +154,7 @@ func buildResults(eff analysis.Input, st analysis.Stored, sys units.System, name
 		}
 		v.EnergyCode = e
 	}
-	v.Warnings, v.Assumptions, v.Cautions = o.Warnings, o.Assumptions, o.Cautions
+	v.Warnings, v.Assumptions, v.Cautions = withUSValuesAll(sys, o.Warnings), withUSValuesAll(sys, o.Assumptions), o.Cautions
 	if len(v.Cautions) == 0 {
 		v.Cautions = []string{analysis.Caution}
 	}

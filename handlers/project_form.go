@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"net/http"
+	"regexp"
 	"strconv"
 	"strings"
 
@@ -246,9 +247,61 @@ func (s *Server) projectFormView(st *formState, p *store.Project) web.ProjectFor
 	for _, t := range catalog.CodeTables() {
 		v.EnergyCodes = append(v.EnergyCodes, web.Choice{Value: t.ID, Label: t.ID})
 	}
+	other := units.US
+	v.UnitsName, v.SwitchLabel = "SI (mm, °C, W/m, m)", "Use US customary units instead"
+	if sys == units.US {
+		other = units.SI
+		v.UnitsName, v.SwitchLabel = "US customary (in, °F, Btu/h·ft, ft)", "Use SI units instead"
+	}
+	v.SwitchURL = "/projects/new?units=" + string(other)
+	if p != nil {
+		v.SwitchURL = fmt.Sprintf("/projects/%d/edit?units=%s", p.ID, other)
+	}
 	return v
 }
 
+// localiseRanges rewrites the range messages of the form's numeric fields ("must be
+// between 30 and 100 °C", from the validation in SI) in the units the form is in.
+func localiseRanges(st *formState, sys units.System) {
+	fields := map[string]numField{}
+	for _, f := range projectNumFields() {
+		fields[f.Key] = f
+	}
+	for k, msg := range st.Errors {
+		if f, ok := fields[k]; ok {
+			st.Errors[k] = localiseRange(f, sys, msg)
+		}
+	}
+}
+
+var rangeMsg = regexp.MustCompile(`^must be between (-?[0-9.e+]+) and (-?[0-9.e+]+)( .*)?$`)
+
+// localiseRange writes one range message (its bounds in SI, with or without the SI
+// unit) in a system's units; other messages are returned as they are.
+func localiseRange(f numField, sys units.System, msg string) string {
+	m := rangeMsg.FindStringSubmatch(msg)
+	if m == nil {
+		return msg
+	}
+	lo, err1 := strconv.ParseFloat(m[1], 64)
+	hi, err2 := strconv.ParseFloat(m[2], 64)
+	if err1 != nil || err2 != nil {
+		return msg
+	}
+	var a, b, unit string
+	switch {
+	case f.Q > 0:
+		a, b, unit = strings.TrimSuffix(units.Format(f.Q, sys, lo), ".0"), strings.TrimSuffix(units.Format(f.Q, sys, hi), ".0"), units.Label(f.Q, sys)
+	case f.Scale != 0:
+		a, b, unit = formPlain(lo/f.Scale), formPlain(hi/f.Scale), "%"
+	default:
+		return msg
+	}
+	return "must be between " + a + " and " + b + " " + unit
+}
+
+// projectNew shows the form in SI, or in US customary units with ?units=us: the
+// defaults converted, the headings and messages in those units.
 func (s *Server) projectNew(w http.ResponseWriter, r *http.Request) {
 	p := store.Project{Units: "si"}
 	if r.URL.Query().Get("units") == "us" {
@@ -266,6 +319,7 @@ func (s *Server) projectCreate(w http.ResponseWriter, r *http.Request) {
 	}
 	st, in := projectFormFromRequest(r)
 	st.place(in.validate(), func(f string) (string, bool) { return f, true })
+	localiseRanges(st, units.System(in.Units))
 	if !st.ok() {
 		templ.Handler(web.ProjectForm(s.projectFormView(st, nil)), templ.WithStatus(http.StatusUnprocessableEntity)).ServeHTTP(w, r)
 		return
@@ -289,7 +343,13 @@ func (s *Server) projectEdit(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	templ.Handler(web.ProjectForm(s.projectFormView(projectFormValues(p, set), &p))).ServeHTTP(w, r)
+	// ?units= shows the form in the other system (the stored values converted); saving
+	// it then changes the project's display units.
+	shown := p
+	if u := units.System(r.URL.Query().Get("units")); u.Valid() {
+		shown.Units = string(u)
+	}
+	templ.Handler(web.ProjectForm(s.projectFormView(projectFormValues(shown, set), &p))).ServeHTTP(w, r)
 }
 
 func (s *Server) projectUpdate(w http.ResponseWriter, r *http.Request) {
@@ -304,6 +364,7 @@ func (s *Server) projectUpdate(w http.ResponseWriter, r *http.Request) {
 	}
 	st, in := projectFormFromRequest(r)
 	st.place(in.validate(), func(f string) (string, bool) { return f, true })
+	localiseRanges(st, units.System(in.Units))
 	if in.Version == nil {
 		st.Other = append(st.Other, "The form lacks its version; reload the page.")
 	}

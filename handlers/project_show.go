@@ -3,6 +3,7 @@ package handlers
 import (
 	"cmp"
 	"fmt"
+	"math"
 	"net/http"
 	"slices"
 	"strconv"
@@ -39,7 +40,7 @@ var lineColumns = []lineColumn{
 	{key: "surface", label: "Surface", q: units.Temp, num: true},
 	{key: "margin", label: "Dew margin", q: units.TempDiff, num: true},
 	{key: "governing", label: "Governing"},
-	{key: "status", label: "Status"},
+	{key: "status", label: "Status", num: true}, // by the worst flag: input problems first
 }
 
 // listRow is a rendered row with the values it sorts by.
@@ -90,6 +91,20 @@ func lineSizeText(in analysis.Input, sys units.System) (string, *float64) {
 	return "", nil
 }
 
+// thicknessMM is an insulation thickness for the list. The catalog keeps inch series
+// in mm rounded to 0.01 mm (3/8 in is stored as 9.52), which units.Format would write
+// as 0.37 in; within that rounding a thickness is shown as the eighth of an inch it
+// stands for.
+func thicknessMM(sys units.System, mm float64) float64 {
+	if sys == units.US {
+		eighths := math.Round(mm / 25.4 * 8)
+		if snapped := eighths * 25.4 / 8; math.Abs(snapped-mm) <= 0.0051 {
+			return snapped
+		}
+	}
+	return mm
+}
+
 func fmtOpt(q units.Quantity, sys units.System, p *float64) string {
 	if p == nil {
 		return "—"
@@ -135,7 +150,7 @@ func buildListRow(pid int64, lv LineView, sys units.System, names nameLookup) li
 	}
 	v := web.LineRow{
 		ID: lv.Line.ID, Tag: lv.Line.Tag, Service: lv.Line.Service, Size: size, Insulation: insulation, Jacket: jacket,
-		Location: lv.Line.Location, Length: fmtOpt(units.LongLength, sys, in.LengthM), Thickness: units.Format(units.Length, sys, total),
+		Location: lv.Line.Location, Length: fmtOpt(units.LongLength, sys, in.LengthM), Thickness: units.Format(units.Length, sys, thicknessMM(sys, total)),
 		Flags:   statusFlags(keys),
 		EditURL: fmt.Sprintf("/projects/%d/lines/%d", pid, lv.Line.ID), DupURL: fmt.Sprintf("/projects/%d/lines/%d/duplicate", pid, lv.Line.ID),
 		DeleteURL: fmt.Sprintf("/projects/%d/lines/%d/delete", pid, lv.Line.ID),
@@ -163,7 +178,8 @@ func buildListRow(pid int64, lv LineView, sys units.System, names nameLookup) li
 		v.Surface, r.num["surface"] = units.Format(units.Temp, sys, st), &st
 		v.Margin, r.num["margin"] = fmtOpt(units.TempDiff, sys, o.CondensationMarginK), o.CondensationMarginK
 		if g := o.Sizing.Governing; g != nil && o.Sizing.GoverningThicknessMM != nil {
-			v.Governing = lineCriterionLabel(*g) + " " + units.FormatUnit(units.Length, sys, *o.Sizing.GoverningThicknessMM)
+			v.Governing = lineCriterionLabel(*g)
+			v.GovThick = units.FormatUnit(units.Length, sys, thicknessMM(sys, *o.Sizing.GoverningThicknessMM))
 			r.str["governing"] = lineCriterionLabel(*g)
 		}
 	}
@@ -266,20 +282,26 @@ func tagDigits(s string) string {
 }
 
 // projectShow is the project page: the line list with computed columns, sorting,
-// totals and each line's status. Stale stored answers are recomputed (once) by
-// projectLines; a view of fresh lines does no physics.
+// totals and each line's status. It reads only each stored answer's summary
+// (listLines); stale answers are recomputed (once) and saved; a view of fresh lines does
+// no physics and, once their freshness keys are saved, no hashing.
 func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 	p, err := s.loadProject(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
-	_, views, err := s.projectLines(r.Context(), p)
+	set, err := ProjectSettings(p)
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
 	lib, err := s.store.Library(r.Context())
+	if err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	views, err := s.listLines(r.Context(), p, set, lib)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -316,7 +338,7 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 		LineCount: len(rows),
 	}
 	for _, c := range lineColumns {
-		h := web.ColumnHead{Key: c.key, Label: c.label, Num: c.num && c.key != "size"}
+		h := web.ColumnHead{Key: c.key, Label: c.label, Num: c.q != 0} // right-aligned: measured values
 		if c.q != 0 {
 			h.Unit = units.Label(c.q, sys)
 		}

@@ -72,14 +72,19 @@ func (s *Server) schedulePage(w http.ResponseWriter, r *http.Request) {
 
 // webTable writes a schedule table as text for the page.
 func webTable(t schedule.Table) web.ScheduleTable {
-	out := web.ScheduleTable{Headings: make([]string, len(t.Columns)), Numeric: make([]bool, len(t.Columns)), Rows: make([][]string, len(t.Rows))}
+	out := web.ScheduleTable{Headings: make([]string, len(t.Columns)), Numeric: make([]bool, len(t.Columns)),
+		NoWrap: make([]bool, len(t.Columns)), Rows: make([][]string, len(t.Rows))}
 	for i, c := range t.Columns {
 		out.Headings[i], out.Numeric[i] = c.Heading(), c.Numeric
+		switch c.Key {
+		case "tag", "size", "build_up", "location", "exposure", "vapour_retarder", "energy_code":
+			out.NoWrap[i] = true // "NPS 2-1/2" must not break at its hyphen
+		}
 	}
 	for r, row := range t.Rows {
 		cells := make([]string, len(row))
 		for i, c := range row {
-			cells[i] = c.String(t.Columns[i].Decimals)
+			cells[i] = c.Display(t.Columns[i].Decimals)
 		}
 		out.Rows[r] = cells
 	}

@@ -29,7 +29,11 @@ func (s *Server) lineSheet(r *http.Request) (projectID int64, sh schedule.Sheet,
 	}
 	for _, l := range lines {
 		if l.ID == lineID {
-			return projectID, schedule.BuildSheet(p, l, lib, time.Now()), nil
+			sh := schedule.BuildSheet(p, l, lib, time.Now())
+			// The analysis writes in SI; a US project's sheet adds the US values.
+			sh.Assumptions = withUSValuesAll(p.Units, sh.Assumptions)
+			sh.Warnings = withUSValuesAll(p.Units, sh.Warnings)
+			return projectID, sh, nil
 		}
 	}
 	return 0, sh, NotFound("line")

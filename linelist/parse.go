@@ -159,7 +159,11 @@ func (c *collector) add(row int, field, format string, args ...any) {
 
 func (c *collector) result() []RowError {
 	if c.more > 0 {
-		c.list = append(c.list, RowError{Message: fmt.Sprintf("… and %d more problems not listed; fix these first", c.more)})
+		noun := "problems"
+		if c.more == 1 {
+			noun = "problem"
+		}
+		c.list = append(c.list, RowError{Message: fmt.Sprintf("… and %d more %s not listed; fix these first", c.more, noun)})
 	}
 	return c.list
 }

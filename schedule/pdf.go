@@ -95,7 +95,7 @@ func (d *pdfDoc) table(t Table, totalW, size float64) *pdfTable {
 		}
 		for i, c := range row {
 			if c.IsNum || i == 0 {
-				minW[i] = max(minW[i], d.GetStringWidth(c.String(t.Columns[i].Decimals))+2.2)
+				minW[i] = max(minW[i], d.GetStringWidth(c.Display(t.Columns[i].Decimals))+2.2)
 			} else {
 				word(c.Text, i)
 			}
@@ -228,7 +228,7 @@ func (d *pdfDoc) body(pt *pdfTable, maxLines int) {
 	texts := make([]string, len(pt.t.Columns))
 	for _, row := range pt.t.Rows {
 		for i, c := range row {
-			texts[i] = c.String(pt.t.Columns[i].Decimals)
+			texts[i] = c.Display(pt.t.Columns[i].Decimals)
 		}
 		d.drawRow(pt, texts, num, false, false, maxLines)
 	}

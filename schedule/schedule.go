@@ -16,7 +16,9 @@
 //     (flat surfaces: area × (1 + LapWaste)); LapWaste is 10 % for laps and waste;
 //   - insulation volume = installed cross-section × insulated length (pipes: the annulus
 //     between the pipe OD and the insulation OD; rectangular ducts: the outer rectangle
-//     less the duct; flat surfaces: area × thickness), without the lap allowance.
+//     less the duct; flat surfaces: area × thickness), without the lap allowance;
+//   - surface area = the surface under the insulation (pipes: π × pipe OD × insulated
+//     length; rectangular ducts: perimeter × insulated length; flat surfaces: their area).
 package schedule
 
 import (
@@ -488,14 +490,16 @@ type JacketTotal struct {
 	JacketAreaM2   float64 `json:"jacket_area_m2"`
 }
 
-// Grand is the whole schedule's totals.
+// Grand is the whole schedule's totals. Hot lines' heat loss and cold lines' heat gain
+// are two plant loads and are kept apart, never netted.
 type Grand struct {
 	Lines        int     `json:"lines"`
 	LengthM      float64 `json:"insulated_length_m"`
 	AreaM2       float64 `json:"area_m2"`
 	JacketAreaM2 float64 `json:"jacket_area_m2"`
 	VolumeM3     float64 `json:"volume_m3"`
-	HeatFlowW    float64 `json:"heat_flow_w"`
+	HeatLossW    float64 `json:"heat_loss_w"` // sum of the rows losing heat
+	HeatGainW    float64 `json:"heat_gain_w"` // sum of the rows gaining heat, as a positive number
 }
 
 func val(p *float64) float64 {
@@ -514,10 +518,14 @@ func SumRows(rows []Row) Totals {
 	for _, r := range rows {
 		t.Grand.Lines++
 		t.Grand.LengthM += val(r.InsulatedM)
-		t.Grand.AreaM2 += val(r.AreaM2)
+		t.Grand.AreaM2 += val(r.SurfaceAreaM2())
 		t.Grand.JacketAreaM2 += val(r.JacketAreaM2)
 		t.Grand.VolumeM3 += val(r.VolumeM3)
-		t.Grand.HeatFlowW += val(r.HeatFlowW)
+		if q := val(r.HeatFlowW); q >= 0 {
+			t.Grand.HeatLossW += q
+		} else {
+			t.Grand.HeatGainW -= q
+		}
 		if r.Material != "" {
 			key := [3]string{r.Material, r.Size + "|" + r.SizeText(units.SI), thicknessKey(r.ThicknessMM)}
 			i, ok := mi[key]
@@ -529,7 +537,7 @@ func SumRows(rows []Row) Totals {
 			m := &t.ByMaterial[i]
 			m.Lines++
 			m.LengthM += val(r.InsulatedM)
-			m.AreaM2 += val(r.AreaM2)
+			m.AreaM2 += val(r.SurfaceAreaM2())
 			m.JacketAreaM2 += val(r.JacketAreaM2)
 			m.VolumeM3 += val(r.VolumeM3)
 		}
@@ -544,7 +552,28 @@ func SumRows(rows []Row) Totals {
 			t.ByJacket[i].JacketAreaM2 += val(r.JacketAreaM2)
 		}
 	}
+	slices.SortStableFunc(t.ByMaterial, func(a, b MaterialTotal) int {
+		return compareGroups(a.Material, sizeKey(a.Size), a.ThicknessMM, b.Material, sizeKey(b.Size), b.ThicknessMM)
+	})
 	return t
+}
+
+// SurfaceAreaM2 is the area of the surface under the insulation: π × pipe OD ×
+// insulated length for a pipe, perimeter × insulated length for a rectangular duct, the
+// given area for a flat surface; nil where it is not known (a pipe whose OD could not
+// be found, a line without a length).
+func (r Row) SurfaceAreaM2() *float64 {
+	switch {
+	case r.AreaM2 != nil:
+		return r.AreaM2
+	case r.InsulatedM == nil:
+		return nil
+	case r.PipeODmm != nil && r.DuctWmm == nil:
+		return ptr(math.Pi * *r.PipeODmm / 1000 * *r.InsulatedM)
+	case r.DuctWmm != nil && r.DuctHmm != nil:
+		return ptr(2 * (*r.DuctWmm + *r.DuctHmm) / 1000 * *r.InsulatedM)
+	}
+	return nil
 }
 
 func thicknessKey(mm float64) string {

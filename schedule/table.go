@@ -2,6 +2,7 @@ package schedule
 
 import (
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -26,6 +27,48 @@ func (c Cell) String(decimals int) string {
 		return strconv.FormatFloat(c.Num, 'f', decimals, 64)
 	}
 	return c.Text
+}
+
+// Display writes the cell as a page or PDF shows it: numbers with their thousands
+// grouped by a narrow no-break space ("16 079.03"), so large quantities read at a
+// glance and never break across lines. The CSV and XLSX exports keep plain numbers
+// (String).
+func (c Cell) Display(decimals int) string {
+	s := c.String(decimals)
+	if !c.IsNum || c.Blank {
+		return s
+	}
+	return GroupThousands(s)
+}
+
+// ThousandsSep is the thousands separator of Display: U+202F NARROW NO-BREAK SPACE, the
+// SI brochure's thin space that never breaks a number.
+const ThousandsSep = "\u202f"
+
+// GroupThousands puts ThousandsSep between the thousands of a plain formatted number of
+// 4 or more integer digits ("2204" → "2 204", "-16079.03" → "-16 079.03"); anything else
+// is returned as it is.
+func GroupThousands(s string) string {
+	intPart, frac, hasFrac := strings.Cut(s, ".")
+	sign := ""
+	if strings.HasPrefix(intPart, "-") {
+		sign, intPart = "-", intPart[1:]
+	}
+	if len(intPart) < 4 || strings.Trim(intPart, "0123456789") != "" {
+		return s
+	}
+	var b strings.Builder
+	b.WriteString(sign)
+	for i := range len(intPart) {
+		if i > 0 && (len(intPart)-i)%3 == 0 {
+			b.WriteString(ThousandsSep)
+		}
+		b.WriteByte(intPart[i])
+	}
+	if hasFrac {
+		b.WriteString("." + frac)
+	}
+	return b.String()
 }
 
 // Column is one column of a shown table.
@@ -230,7 +273,7 @@ func (c conv) cells(r Row) []Cell {
 		intCell(r.Fittings.Flanges), intCell(r.Fittings.Caps),
 		fitLen,
 		c.opt(units.LongLength, r.InsulatedM),
-		c.opt(units.Area, r.AreaM2),
+		c.opt(units.Area, r.SurfaceAreaM2()),
 		text(r.Material), text(r.Spec), nLayers, text(c.thicknessText(r.Layers)),
 		thick,
 		text(r.Jacket), text(vr),
@@ -300,13 +343,14 @@ func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 	areaCol := c.col("area", "Surface area", units.Area, 10)
 	jaCol := c.col("jacket_area", "Jacket area incl. laps", units.Area, 12)
 	volCol := c.col("volume", "Insulation volume", units.Volume, 11)
-	hfCol := c.col("heat_flow", "Heat flow", units.HeatFlow, 11)
+	lossCol := c.col("heat_loss", "Heat loss, hot lines", units.HeatFlow, 11)
+	gainCol := c.col("heat_gain", "Heat gain, cold lines", units.HeatFlow, 11)
 	linesCol := count("lines", "Lines", 6)
 
 	mat := Table{Columns: []Column{textCol("material", "Material", 30), textCol("spec", "Specification", 20),
 		textCol("size", "Size", 14), c.col("thickness", "Total thickness", units.Length, 10), linesCol, lenCol, areaCol, jaCol, volCol}}
 	jac := Table{Columns: []Column{textCol("jacket", "Jacket", 34), textCol("vapour_retarder", "Vapour retarder", 10), linesCol, jaCol}}
-	grand := Table{Columns: []Column{textCol("total", "Total", 20), linesCol, lenCol, areaCol, jaCol, volCol, hfCol}}
+	grand := Table{Columns: []Column{textCol("total", "Total", 20), linesCol, lenCol, areaCol, jaCol, volCol, lossCol, gainCol}}
 
 	type acc struct{ lines, length, area, ja, vol float64 }
 	mIndex := map[string]int{}
@@ -314,7 +358,8 @@ func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 	jIndex := map[string]int{}
 	var jAcc []acc
 	var g acc
-	var hf float64
+	var loss, gain float64 // hot lines lose heat, cold lines gain it: two loads, never netted
+	var mKeys []sizeOrder
 	for i, r := range rows {
 		cells := shown.Rows[i]
 		a := acc{1, num(cells, iLen), num(cells, iArea), num(cells, iJA), num(cells, iVol)}
@@ -323,7 +368,11 @@ func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 		g.area += a.area
 		g.ja += a.ja
 		g.vol += a.vol
-		hf += num(cells, iHF)
+		if q := num(cells, iHF); q >= 0 {
+			loss += q
+		} else {
+			gain -= q
+		}
 		if r.Material != "" {
 			th := cells[iTh]
 			sizeText := r.SizeText(c.sys)
@@ -334,6 +383,7 @@ func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 				mIndex[key] = k
 				mAcc = append(mAcc, acc{})
 				mat.Rows = append(mat.Rows, []Cell{text(r.Material), text(r.Spec), text(sizeText), th})
+				mKeys = append(mKeys, sizeKey(sizeText))
 			}
 			m := &mAcc[k]
 			m.lines++
@@ -364,10 +414,23 @@ func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 	for k := range jac.Rows {
 		jac.Rows[k] = append(jac.Rows[k], Cell{IsNum: true, Num: jAcc[k].lines}, Cell{IsNum: true, Num: round(jAcc[k].ja, da)})
 	}
+	order := make([]int, len(mat.Rows))
+	for k := range order {
+		order[k] = k
+	}
+	slices.SortStableFunc(order, func(x, y int) int {
+		return compareGroups(mat.Rows[x][0].Text, mKeys[x], mat.Rows[x][3].Num, mat.Rows[y][0].Text, mKeys[y], mat.Rows[y][3].Num)
+	})
+	sorted := make([][]Cell, len(order))
+	for k, o := range order {
+		sorted[k] = mat.Rows[o]
+	}
+	mat.Rows = sorted
+	dh := c.decimals(units.HeatFlow)
 	grand.Rows = [][]Cell{{text("All lines"), Cell{IsNum: true, Num: g.lines},
 		Cell{IsNum: true, Num: round(g.length, dl)}, Cell{IsNum: true, Num: round(g.area, da)},
 		Cell{IsNum: true, Num: round(g.ja, da)}, Cell{IsNum: true, Num: round(g.vol, dv)},
-		Cell{IsNum: true, Num: round(hf, c.decimals(units.HeatFlow))}}}
+		Cell{IsNum: true, Num: round(loss, dh)}, Cell{IsNum: true, Num: round(gain, dh)}}}
 	return mat, jac, grand
 }
 
@@ -417,6 +480,7 @@ func (c conv) conditions(h Header) [][2]string {
 		[2]string{"Jacket area", "outer surface × insulated length + " + strconv.FormatFloat(h.LapWastePct, 'f', -1, 64) +
 			" % for laps and waste"},
 		[2]string{"Insulation volume", "installed cross-section × insulated length, no waste allowance"},
+		[2]string{"Surface area", "surface under the insulation: π × pipe OD × insulated length (ducts: perimeter × insulated length; flat surfaces: their area)"},
 		[2]string{"Method version", h.MethodVersion},
 	)
 	return out

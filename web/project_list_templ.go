@@ -56,7 +56,7 @@ func ProjectList(v ProjectListView) templ.Component {
 				}()
 			}
 			ctx = templ.InitializeContext(ctx)
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 1, "<div class=\"page-head\"><h1>Projects</h1><p class=\"actions\"><a class=\"button\" href=\"/projects/new\" data-testid=\"new-project\">New project</a><form method=\"post\" action=\"/projects/demo\" class=\"inline\"><button type=\"submit\" class=\"secondary\" data-testid=\"demo-project\">Create the demo project</button></form></p></div>")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 1, "<div class=\"page-head\"><h1>Projects</h1><div class=\"actions\"><a class=\"button\" href=\"/projects/new\" data-testid=\"new-project\">New project</a><form method=\"post\" action=\"/projects/demo\" class=\"inline\"><button type=\"submit\" class=\"secondary\" data-testid=\"demo-project\">Create the demo project</button></form></div></div>")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}

@@ -1,0 +1,3 @@
+ALTER TABLE lines DROP COLUMN result_key;
+ALTER TABLE lines DROP COLUMN result_summary;
+DROP FUNCTION line_result_summary(jsonb);
