@@ -156,19 +156,45 @@ type ResultUpdate struct {
 
 // SaveResults stores computed results without touching the lines' versions: a
 // result is derived data, and recomputing it must not make an open edit form stale.
+// A few are updated in one batch; many (a whole project after a method change) are
+// copied into a temporary table and applied by one UPDATE, which is far quicker.
 func (s *Store) SaveResults(ctx context.Context, updates []ResultUpdate) error {
-	if len(updates) == 0 {
+	switch {
+	case len(updates) == 0:
+		return nil
+	case len(updates) <= bulkResults:
+		batch := &pgx.Batch{}
+		for _, u := range updates {
+			batch.Queue(`UPDATE lines SET result = $2, result_hash = $3 WHERE id = $1`, u.LineID, nullJSON(u.Result), u.Hash)
+		}
+		if err := s.pool.SendBatch(ctx, batch).Close(); err != nil {
+			return fmt.Errorf("store: save results: %w", err)
+		}
 		return nil
 	}
-	batch := &pgx.Batch{}
-	for _, u := range updates {
-		batch.Queue(`UPDATE lines SET result = $2, result_hash = $3 WHERE id = $1`, u.LineID, nullJSON(u.Result), u.Hash)
-	}
-	if err := s.pool.SendBatch(ctx, batch).Close(); err != nil {
+	err := pgx.BeginFunc(ctx, s.pool, func(tx pgx.Tx) error {
+		if _, err := tx.Exec(ctx, `CREATE TEMP TABLE fresh_results (id bigint, result jsonb, result_hash text) ON COMMIT DROP`); err != nil {
+			return err
+		}
+		_, err := tx.CopyFrom(ctx, pgx.Identifier{"fresh_results"}, []string{"id", "result", "result_hash"},
+			pgx.CopyFromSlice(len(updates), func(i int) ([]any, error) {
+				u := updates[i]
+				return []any{u.LineID, nullString(u.Result), u.Hash}, nil
+			}))
+		if err != nil {
+			return err
+		}
+		_, err = tx.Exec(ctx, `UPDATE lines l SET result = f.result, result_hash = f.result_hash FROM fresh_results f WHERE l.id = f.id`)
+		return err
+	})
+	if err != nil {
 		return fmt.Errorf("store: save results: %w", err)
 	}
 	return nil
 }
+
+// bulkResults is the batch size above which SaveResults copies instead.
+const bulkResults = 64
 
 // LineMaterials pairs a new line (by index in the list given to CreateLines) with
 // the material slugs it uses.
