@@ -172,12 +172,7 @@ func (s *Server) apiLines(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) apiLineCreate(w http.ResponseWriter, r *http.Request) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
-	set, err := ProjectSettings(p)
+	p, set, err := s.loadProjectSettings(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return

@@ -333,12 +333,7 @@ func (s *Server) projectCreate(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) projectEdit(w http.ResponseWriter, r *http.Request) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
-	set, err := ProjectSettings(p)
+	p, set, err := s.loadProjectSettings(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -390,6 +385,16 @@ func (s *Server) projectUpdate(w http.ResponseWriter, r *http.Request) {
 }
 
 // loadProject reads the {id} path parameter and loads the project (404 when missing).
+// loadProjectSettings loads the project named in the URL with its decoded settings.
+func (s *Server) loadProjectSettings(r *http.Request) (store.Project, analysis.ProjectSettings, error) {
+	p, err := s.loadProject(r)
+	if err != nil {
+		return p, analysis.ProjectSettings{}, err
+	}
+	set, err := ProjectSettings(p)
+	return p, set, err
+}
+
 func (s *Server) loadProject(r *http.Request) (store.Project, error) {
 	id, ok := projParseID(chi.URLParam(r, "id"))
 	if !ok {

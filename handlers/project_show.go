@@ -286,12 +286,7 @@ func tagDigits(s string) string {
 // (listLines); stale answers are recomputed (once) and saved; a view of fresh lines does
 // no physics and, once their freshness keys are saved, no hashing.
 func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
-	set, err := ProjectSettings(p)
+	p, set, err := s.loadProjectSettings(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
