@@ -62,9 +62,16 @@ func (k resultKeyer) key(lineVersion int, hash string) string {
 // summary that does not read) are analysed on every core and saved with their key.
 // Recomputed lines carry their whole answer.
 func (s *Server) listLines(ctx context.Context, p store.Project, set analysis.ProjectSettings, lib *store.Library) ([]LineView, error) {
+	views, _, err := s.listLinesFresh(ctx, p, set, lib)
+	return views, err
+}
+
+// listLinesFresh is listLines that also says whether every line was already fresh
+// (none recomputed): only such a view may be kept in the table cache.
+func (s *Server) listLinesFresh(ctx context.Context, p store.Project, set analysis.ProjectSettings, lib *store.Library) ([]LineView, bool, error) {
 	raw, err := s.store.ListLines(ctx, p.ID)
 	if err != nil {
-		return nil, err
+		return nil, false, err
 	}
 	keyer := newResultKeyer(p, lib)
 	views := make([]LineView, len(raw))
@@ -76,7 +83,7 @@ func (s *Server) listLines(ctx context.Context, p store.Project, set analysis.Pr
 			Exposure: r.Exposure, Input: r.Input, Fittings: r.Fittings, ResultHash: r.ResultHash}
 		own, fit, err := decodeLine(l)
 		if err != nil {
-			return nil, err
+			return nil, false, err
 		}
 		views[i] = LineView{Line: l, Own: own, Fittings: fit, Effective: set.Effective(r.Location, own, fit)}
 		if r.Summary != nil && r.ResultKey == keyer.key(r.Version, r.ResultHash) &&
@@ -99,7 +106,7 @@ func (s *Server) listLines(ctx context.Context, p store.Project, set analysis.Pr
 		}
 		results, err := analysis.AnalyseMany(inputs, lib)
 		if err != nil {
-			return nil, err
+			return nil, false, err
 		}
 		updates := make([]store.ResultUpdate, len(stale))
 		for j, i := range stale {
@@ -110,11 +117,11 @@ func (s *Server) listLines(ctx context.Context, p store.Project, set analysis.Pr
 				Key: keyer.key(views[i].Line.Version, staleHash[j])})
 		}
 		if err := s.store.SaveResults(ctx, updates); err != nil {
-			return nil, err
+			return nil, false, err
 		}
 	}
 	if err := s.store.SaveResultKeys(ctx, keys); err != nil {
-		return nil, err
+		return nil, false, err
 	}
-	return views, nil
+	return views, len(stale) == 0, nil
 }

@@ -1,7 +1,9 @@
 package handlers
 
 import (
+	"bytes"
 	"cmp"
+	"context"
 	"fmt"
 	"math"
 	"net/http"
@@ -284,22 +286,66 @@ func tagDigits(s string) string {
 // projectShow is the project page: the line list with computed columns, sorting,
 // totals and each line's status. It reads only each stored answer's summary
 // (listLines); stale answers are recomputed (once) and saved; a view of fresh lines does
-// no physics and, once their freshness keys are saved, no hashing.
+// no physics and, once their freshness keys are saved, no hashing. The table part of
+// the page (ProjectLineTable) is kept rendered in memory (tableCache) under a key read
+// from the database in one query (store.ListFingerprint with the project's version,
+// the sort and the method version), stored only from a view whose lines were all
+// fresh; a hit reads neither the lines nor the library and renders only the head.
 func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 	p, set, err := s.loadProjectSettings(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
-	lib, err := s.store.Library(r.Context())
+	// Read before the lines: a write that lands in between makes the table newer
+	// than its key, which then no longer matches the database and is never served.
+	fp, err := s.store.ListFingerprint(r.Context(), p.ID)
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
-	views, err := s.listLines(r.Context(), p, set, lib)
+	sortParam := r.URL.Query().Get("sort")
+	key := newTableKey(p.ID, p.Version, p.Units, sortParam, fp)
+	head := web.ProjectPageView{
+		Assets: s.assets.urls, ID: p.ID, Name: p.Name, Client: p.Client, Site: p.Site,
+		UnitsName:  map[string]string{"si": "SI", "us": "US customary"}[p.Units],
+		NewLineURL: fmt.Sprintf("/projects/%d/lines/new", p.ID), EditURL: fmt.Sprintf("/projects/%d/edit", p.ID),
+		BaseURL: fmt.Sprintf("/projects/%d", p.ID),
+	}
+	if e, ok := s.tables().get(key); ok {
+		head.LineCount, head.Table = e.lineCount, rawHTML(e.html)
+		w.Header().Set("Cache-Control", "no-store")
+		templ.Handler(web.ProjectPage(head)).ServeHTTP(w, r)
+		return
+	}
+	v, fresh, err := s.projectTable(r.Context(), p, set, sortParam, head)
 	if err != nil {
 		s.fail(w, r, err)
 		return
+	}
+	var b bytes.Buffer
+	if err := web.ProjectLineTable(v).Render(r.Context(), &b); err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	if fresh {
+		s.tables().put(&tableEntry{key: key, html: b.Bytes(), lineCount: v.LineCount})
+	}
+	v.Table = rawHTML(b.Bytes())
+	w.Header().Set("Cache-Control", "no-store")
+	templ.Handler(web.ProjectPage(v)).ServeHTTP(w, r)
+}
+
+// projectTable builds the line list of the page whose head is v: rows, sorting,
+// totals and status counts. fresh says no line needed recomputing.
+func (s *Server) projectTable(ctx context.Context, p store.Project, set analysis.ProjectSettings, sortParam string, v web.ProjectPageView) (web.ProjectPageView, bool, error) {
+	lib, err := s.store.Library(ctx)
+	if err != nil {
+		return v, false, err
+	}
+	views, fresh, err := s.listLinesFresh(ctx, p, set, lib)
+	if err != nil {
+		return v, false, err
 	}
 	sys := units.System(p.Units)
 	rows := make([]listRow, len(views))
@@ -322,16 +368,11 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 			counts[f.Key]++
 		}
 	}
-	sortKey, desc := sortLineRows(rows, r.URL.Query().Get("sort"))
-	v := web.ProjectPageView{
-		Assets: s.assets.urls, ID: p.ID, Name: p.Name, Client: p.Client, Site: p.Site,
-		UnitsName:  map[string]string{"si": "SI", "us": "US customary"}[p.Units],
-		NewLineURL: fmt.Sprintf("/projects/%d/lines/new", p.ID), EditURL: fmt.Sprintf("/projects/%d/edit", p.ID),
-		BaseURL:     fmt.Sprintf("/projects/%d", p.ID),
-		TotalLength: units.FormatUnit(units.LongLength, sys, totalLen), TotalHeat: units.FormatUnit(units.HeatFlow, sys, totalLoss) + " loss",
-		TotalGain: units.FormatUnit(units.HeatFlow, sys, totalGain) + " gain",
-		LineCount: len(rows),
-	}
+	sortKey, desc := sortLineRows(rows, sortParam)
+	v.TotalLength = units.FormatUnit(units.LongLength, sys, totalLen)
+	v.TotalHeat = units.FormatUnit(units.HeatFlow, sys, totalLoss) + " loss"
+	v.TotalGain = units.FormatUnit(units.HeatFlow, sys, totalGain) + " gain"
+	v.LineCount = len(rows)
 	for _, c := range lineColumns {
 		h := web.ColumnHead{Key: c.key, Label: c.label, Num: c.q != 0} // right-aligned: measured values
 		if c.q != 0 {
@@ -357,6 +398,5 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 	for _, row := range rows {
 		v.Rows = append(v.Rows, row.view)
 	}
-	w.Header().Set("Cache-Control", "no-store")
-	templ.Handler(web.ProjectPage(v)).ServeHTTP(w, r)
+	return v, fresh, nil
 }

@@ -40,6 +40,9 @@ type Server struct {
 	cop    *http.CrossOriginProtection
 	// jobs holds long-running work (imports) by id, so a page can show its progress.
 	jobs sync.Map
+	// tableCache keeps rendered project line tables under keys read from the
+	// database, so repeated views of an unchanged project skip decoding and rendering.
+	tableCache *tableCache
 	// logins counts failed sign-ins (auth.go).
 	logins loginLimiter
 }
@@ -59,7 +62,7 @@ func New(st *store.Store, log *slog.Logger, cfg Config) (*Server, error) {
 			return nil, fmt.Errorf("handlers: trusted origin: %w", err)
 		}
 	}
-	s := &Server{store: st, log: log, cfg: cfg, assets: a, cop: cop}
+	s := &Server{store: st, log: log, cfg: cfg, assets: a, cop: cop, tableCache: newTableCache(tableCacheSize)}
 	cop.SetDenyHandler(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, &Error{Code: CodeForbidden, Message: "Cross-origin request refused."})
 	}))

@@ -102,3 +102,28 @@ func (l *Library) Fingerprint() string {
 	}
 	return hex.EncodeToString(h.Sum(nil)[:12])
 }
+
+// ListFingerprint names, in one cheap query, everything a project's line list is
+// built from besides the project row itself: each line's id, version (bumped by every
+// edit), position, result hash, and the transaction that last wrote the row (xmin:
+// any UPDATE, including SaveResults, which changes neither version nor, when a result
+// is saved again under the same hash, the hash), the number of lines, and the library
+// (every material's and jacket's slug and version). Any insert, edit, delete or
+// reorder of a line, any result saved and any library edit changes it. It reads no
+// input or result column, so it stays cheap. Saving freshness keys (result_key) also
+// changes it (xmin): harmless, the next view simply renders once more.
+func (s *Store) ListFingerprint(ctx context.Context, projectID int64) (string, error) {
+	var fp string
+	err := s.pool.QueryRow(ctx, `
+		SELECT (SELECT count(*)::text || '.' || coalesce(md5(string_agg(
+		               id::text || ':' || version || ':' || position || ':' || xmin::text || ':' || result_hash,
+		               ',' ORDER BY position, id)), '')
+		        FROM lines WHERE project_id = $1)
+		    || '|' || (SELECT coalesce(md5(string_agg(slug || '=' || version, ',' ORDER BY slug)), '') FROM materials)
+		    || '|' || (SELECT coalesce(md5(string_agg(slug || '=' || version, ',' ORDER BY slug)), '') FROM jackets)`,
+		projectID).Scan(&fp)
+	if err != nil {
+		return "", fmt.Errorf("store: line list fingerprint of project %d: %w", projectID, err)
+	}
+	return fp, nil
+}

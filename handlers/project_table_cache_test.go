@@ -1,0 +1,197 @@
+package handlers
+
+import (
+	"context"
+	"encoding/json"
+	"fmt"
+	"net/http"
+	"net/url"
+	"strings"
+	"testing"
+
+	"lagwright/analysis"
+	"lagwright/store"
+	"lagwright/store/storetest"
+)
+
+// TestProjectTableCache: the project page's line-list table is served from memory once
+// a view of fresh lines has rendered it, byte for byte what a server without the cache
+// renders; every change to what the table shows (a line edited, a result saved even
+// under the same hash, the project's settings or units, a used material's properties
+// or name, a line added or deleted) gives a new page, again identical to an uncached
+// render. Expected pages are the app's own uncached output (no external reference).
+func TestProjectTableCache(t *testing.T) {
+	st := storetest.NewDB(t)
+	s, _ := newServer(t, st)
+	h := s.Routes()
+	ctx := context.Background()
+	mf, err := st.Material(ctx, "mineral_fiber_pipe_c547_t1")
+	if err != nil {
+		t.Fatal(err)
+	}
+	mf.Slug, mf.Name, mf.Builtin = "test_mf", "Test fibre", false
+	if _, err := st.CreateMaterial(ctx, mf); err != nil {
+		t.Fatal(err)
+	}
+	p := ptProject(t, st, "si")
+	base := fmt.Sprintf("/projects/%d", p.ID)
+	line := strings.Replace(ptSteamLine, "mineral_fiber_pipe_c547_t1", "test_mf", 1)
+	for i, tag := range []string{"STM-1", "STM-2"} {
+		body := strings.Replace(line, `"STM-1"`, `"`+tag+`"`, 1)
+		body = strings.Replace(body, `"length_m": 30`, fmt.Sprintf(`"length_m": %d`, 30+10*i), 1)
+		if code, m := ptJSON(t, h, "POST", "/api/v1"+base+"/lines", body); code != 201 {
+			t.Fatalf("create line = %d %v", code, m)
+		}
+	}
+	view := func(h http.Handler, target string) string {
+		t.Helper()
+		rec := do(t, h, "GET", target, nil, nil)
+		if rec.Code != 200 {
+			t.Fatalf("GET %s = %d", target, rec.Code)
+		}
+		return rec.Body.String()
+	}
+	// settle views the page until it is cached, checks the cached page against an
+	// uncached render, and returns it.
+	settle := func(step, target string) string {
+		t.Helper()
+		var pages []string
+		for range 3 {
+			pages = append(pages, view(h, target))
+		}
+		if pages[1] != pages[2] {
+			t.Fatalf("%s: two views of unchanged lines differ", step)
+		}
+		fp, err := st.ListFingerprint(ctx, p.ID)
+		if err != nil {
+			t.Fatal(err)
+		}
+		pr, _ := st.Project(ctx, p.ID)
+		u, _ := url.Parse(target)
+		e, ok := s.tables().get(newTableKey(p.ID, pr.Version, pr.Units, u.Query().Get("sort"), fp))
+		if !ok {
+			t.Fatalf("%s: the table was not cached after views of fresh lines", step)
+		}
+		if !strings.Contains(pages[2], string(e.html)) || len(e.html) < 1000 {
+			t.Errorf("%s: the page does not carry the cached table", step)
+		}
+		other, _ := newServer(t, st) // its own, empty cache
+		if got := view(other.Routes(), target); got != pages[2] {
+			t.Errorf("%s: the cached page differs from an uncached render", step)
+		}
+		return pages[2]
+	}
+	changed := func(step, before string) string {
+		t.Helper()
+		after := settle(step, base)
+		if after == before {
+			t.Errorf("%s: the page did not change", step)
+		}
+		return after
+	}
+
+	page := settle("first views", base)
+	if !strings.Contains(page, "Test fibre") {
+		t.Fatal("the page does not show the line's material")
+	}
+	if sorted := settle("sorted", base+"?sort=-length"); sorted == page {
+		t.Errorf("sorting by length descending gave the same page")
+	}
+
+	// A line edited (its service): the version changes.
+	l := ptLines(t, st, p.ID)[0]
+	l.Service = "LP steam, east header"
+	if _, err := st.UpdateLine(ctx, l, []string{"test_mf"}); err != nil {
+		t.Fatal(err)
+	}
+	page = changed("line edited", page)
+	if !strings.Contains(page, "LP steam, east header") {
+		t.Errorf("line edited: the new service is not shown")
+	}
+
+	// A result saved under the same hash (version and hash unchanged): the marker shows.
+	l = ptLines(t, st, p.ID)[0]
+	var stored analysis.Stored
+	if err := json.Unmarshal(l.Result, &stored); err != nil || stored.Output == nil {
+		t.Fatalf("stored result: %v", err)
+	}
+	stored.Output.SurfaceTempC = 123.456
+	if err := st.SaveResults(ctx, []store.ResultUpdate{{LineID: l.ID, Result: stored.Marshal(), Hash: l.ResultHash}}); err != nil {
+		t.Fatal(err)
+	}
+	page = changed("result saved", page)
+	if !strings.Contains(page, ">123.5<") {
+		t.Errorf("result saved: the saved result is not shown")
+	}
+
+	// The project's settings change: recomputed, the marker is gone.
+	pr, _ := st.Project(ctx, p.ID)
+	set, _ := ProjectSettings(pr)
+	set.Indoor.AmbientTempC = 31
+	pr.Settings, _ = json.Marshal(set)
+	if pr, err = st.UpdateProject(ctx, pr); err != nil {
+		t.Fatal(err)
+	}
+	page = changed("settings changed", page)
+	if strings.Contains(page, ">123.5<") {
+		t.Errorf("settings changed: the old result is still shown")
+	}
+
+	// The project's units change.
+	pr.Units = "us"
+	if pr, err = st.UpdateProject(ctx, pr); err != nil {
+		t.Fatal(err)
+	}
+	page = changed("units changed", page)
+
+	// The used material's conductivity, then its name.
+	m, _ := st.Material(ctx, "test_mf")
+	for i := range m.KPoints {
+		m.KPoints[i].K *= 1.2
+	}
+	if m, err = st.UpdateMaterial(ctx, m); err != nil {
+		t.Fatal(err)
+	}
+	page = changed("material k changed", page)
+	m.Name = "Test fibre, renamed"
+	if _, err = st.UpdateMaterial(ctx, m); err != nil {
+		t.Fatal(err)
+	}
+	page = changed("material renamed", page)
+	if !strings.Contains(page, "Test fibre, renamed") {
+		t.Errorf("material renamed: the new name is not shown")
+	}
+
+	// A line deleted.
+	if err := st.DeleteLine(ctx, p.ID, ptLines(t, st, p.ID)[1].ID); err != nil {
+		t.Fatal(err)
+	}
+	page = changed("line deleted", page)
+	if strings.Contains(page, "STM-2") {
+		t.Errorf("line deleted: still listed")
+	}
+}
+
+// TestTableCacheBound: the cache keeps at most its size, dropping the least recently
+// used entry first.
+func TestTableCacheBound(t *testing.T) {
+	c := newTableCache(2)
+	k := func(i int) tableKey { return newTableKey(int64(i), 1, "si", "", "fp") }
+	c.put(&tableEntry{key: k(1)})
+	c.put(&tableEntry{key: k(2)})
+	if _, ok := c.get(k(1)); !ok { // 1 is now the most recent
+		t.Fatal("entry 1 missing")
+	}
+	c.put(&tableEntry{key: k(3)})
+	if _, ok := c.get(k(2)); ok {
+		t.Error("entry 2 (least recently used) kept beyond the bound")
+	}
+	for _, i := range []int{1, 3} {
+		if _, ok := c.get(k(i)); !ok {
+			t.Errorf("entry %d dropped", i)
+		}
+	}
+	if n := c.order.Len(); n != 2 || len(c.byKey) != 2 {
+		t.Errorf("%d entries, want 2", n)
+	}
+}
