@@ -243,13 +243,9 @@ func (s *Server) apiLinePatch(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	patch, err := readJSONObject(r)
+	patch, err := readPatch(r)
 	if err != nil {
 		s.fail(w, r, err)
-		return
-	}
-	if _, ok := patch["version"]; !ok {
-		s.fail(w, r, Invalid(FieldError{Field: "version", Message: "is required: send the version you read"}))
 		return
 	}
 	own, fit, err := decodeLine(l)

@@ -67,6 +67,19 @@ func readJSONObject(r *http.Request) (map[string]any, error) {
 	return m, nil
 }
 
+// readPatch reads a PATCH body: one JSON object that carries the version the client
+// read (optimistic concurrency).
+func readPatch(r *http.Request) (map[string]any, error) {
+	m, err := readJSONObject(r)
+	if err != nil {
+		return nil, err
+	}
+	if _, ok := m["version"]; !ok {
+		return nil, Invalid(FieldError{Field: "version", Message: "is required: send the version you read"})
+	}
+	return m, nil
+}
+
 // mergePatch applies an RFC 7386 JSON merge patch to target.
 func mergePatch(target, patch map[string]any) map[string]any {
 	for k, v := range patch {
@@ -178,7 +191,7 @@ func (s *Server) apiProjectPatch(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	patch, err := readJSONObject(r)
+	patch, err := readPatch(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -186,10 +199,6 @@ func (s *Server) apiProjectPatch(w http.ResponseWriter, r *http.Request) {
 	cur, err := projectOut(p)
 	if err != nil {
 		s.fail(w, r, err)
-		return
-	}
-	if _, ok := patch["version"]; !ok {
-		s.fail(w, r, Invalid(FieldError{Field: "version", Message: "is required: send the version you read"}))
 		return
 	}
 	m := mergePatch(jsonMap(cur), patch)

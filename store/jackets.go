@@ -132,34 +132,9 @@ func (s *Store) UpdateJacket(ctx context.Context, j Jacket) (Jacket, error) {
 // Lines name their jacket in their input JSON (no foreign key), so the check reads
 // the inputs; the jacket row is locked meanwhile.
 func (s *Store) DeleteJacket(ctx context.Context, slug string) error {
-	err := pgx.BeginFunc(ctx, s.pool, func(tx pgx.Tx) error {
-		var builtin bool
-		err := tx.QueryRow(ctx, `SELECT builtin FROM jackets WHERE slug = $1 FOR UPDATE`, slug).Scan(&builtin)
-		if errors.Is(err, pgx.ErrNoRows) {
-			return ErrNotFound
-		}
-		if err != nil {
-			return err
-		}
-		if builtin {
-			return ErrBuiltin
-		}
-		inUse, err := usersOf(ctx, tx, "jacket", slug, `
-			SELECT count(*) OVER (), l.tag, p.name
-			FROM lines l JOIN projects p ON p.id = l.project_id
-			WHERE l.input->>'jacket' = $1
-			ORDER BY p.name, l.position, l.id LIMIT 5`)
-		if err != nil {
-			return err
-		}
-		if inUse != nil {
-			return inUse
-		}
-		_, err = tx.Exec(ctx, `DELETE FROM jackets WHERE slug = $1`, slug)
-		return err
-	})
-	if err != nil {
-		return fmt.Errorf("store: delete jacket %q: %w", slug, err)
-	}
-	return nil
+	return s.deleteLibraryRow(ctx, "jacket", "jackets", slug, `
+		SELECT count(*) OVER (), l.tag, p.name
+		FROM lines l JOIN projects p ON p.id = l.project_id
+		WHERE l.input->>'jacket' = $1
+		ORDER BY p.name, l.position, l.id LIMIT 5`)
 }

@@ -321,9 +321,19 @@ func (s *Store) UpdateMaterial(ctx context.Context, m Material) (Material, error
 // that lines use an *InUseError (errors.Is ErrInUse) naming them; a missing one
 // ErrNotFound.
 func (s *Store) DeleteMaterial(ctx context.Context, slug string) error {
+	return s.deleteLibraryRow(ctx, "material", "materials", slug, `
+		SELECT count(*) OVER (), l.tag, p.name
+		FROM line_materials lm JOIN lines l ON l.id = lm.line_id JOIN projects p ON p.id = l.project_id
+		WHERE lm.material_slug = $1
+		ORDER BY p.name, l.position, l.id LIMIT 5`)
+}
+
+// deleteLibraryRow deletes a custom material or jacket: the row is locked, a built-in
+// is refused (ErrBuiltin), and so is a row that lines use (usersQuery lists them).
+func (s *Store) deleteLibraryRow(ctx context.Context, what, table, slug, usersQuery string) error {
 	err := pgx.BeginFunc(ctx, s.pool, func(tx pgx.Tx) error {
 		var builtin bool
-		err := tx.QueryRow(ctx, `SELECT builtin FROM materials WHERE slug = $1 FOR UPDATE`, slug).Scan(&builtin)
+		err := tx.QueryRow(ctx, `SELECT builtin FROM `+table+` WHERE slug = $1 FOR UPDATE`, slug).Scan(&builtin)
 		if errors.Is(err, pgx.ErrNoRows) {
 			return ErrNotFound
 		}
@@ -333,28 +343,24 @@ func (s *Store) DeleteMaterial(ctx context.Context, slug string) error {
 		if builtin {
 			return ErrBuiltin
 		}
-		inUse, err := usersOf(ctx, tx, "material", slug, `
-			SELECT count(*) OVER (), l.tag, p.name
-			FROM line_materials lm JOIN lines l ON l.id = lm.line_id JOIN projects p ON p.id = l.project_id
-			WHERE lm.material_slug = $1
-			ORDER BY p.name, l.position, l.id LIMIT 5`)
+		inUse, err := usersOf(ctx, tx, what, slug, usersQuery)
 		if err != nil {
 			return err
 		}
 		if inUse != nil {
 			return inUse
 		}
-		_, err = tx.Exec(ctx, `DELETE FROM materials WHERE slug = $1`, slug)
+		_, err = tx.Exec(ctx, `DELETE FROM `+table+` WHERE slug = $1`, slug)
 		return err
 	})
 	var pg *pgconn.PgError
 	if errors.As(err, &pg) && pg.Code == "23503" {
-		// A line took the material between the check and the delete: the foreign key
-		// of line_materials refused it.
-		err = &InUseError{What: "material", Slug: slug, Count: 1}
+		// A line took the row between the check and the delete: the foreign key of
+		// line_materials refused it.
+		err = &InUseError{What: what, Slug: slug, Count: 1}
 	}
 	if err != nil {
-		return fmt.Errorf("store: delete material %q: %w", slug, err)
+		return fmt.Errorf("store: delete %s %q: %w", what, slug, err)
 	}
 	return nil
 }
