@@ -10,6 +10,7 @@ import (
 	"github.com/go-chi/chi/v5"
 
 	"lagwright/analysis"
+	"lagwright/results"
 	"lagwright/schedule"
 	"lagwright/store"
 	"lagwright/units"
@@ -34,7 +35,7 @@ func (s *Server) cmpProject(r *http.Request) (store.Project, analysis.ProjectSet
 	if err != nil {
 		return p, analysis.ProjectSettings{}, err
 	}
-	set, err := ProjectSettings(p)
+	set, err := results.Settings(p)
 	return p, set, err
 }
 
@@ -60,7 +61,7 @@ func (s *Server) cmpLoadLine(r *http.Request) (cmpLine, error) {
 	if c.Line, err = s.store.Line(r.Context(), c.Project.ID, lid); err != nil {
 		return c, err
 	}
-	c.Own, c.Fit, err = decodeLine(c.Line)
+	c.Own, c.Fit, err = results.Decode(c.Line)
 	return c, err
 }
 

@@ -119,7 +119,7 @@ func (s *Server) comparePage(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, Invalid(FieldError{Field: "layers", Message: "this line is bare: add an insulation layer on the line page to compare thicknesses"}))
 		return
 	}
-	lib, err := s.store.Library(r.Context())
+	lib, err := s.library(r.Context())
 	if err != nil {
 		s.fail(w, r, err)
 		return

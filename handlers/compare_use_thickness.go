@@ -44,7 +44,12 @@ func (s *Server) compareUseThickness(w http.ResponseWriter, r *http.Request) {
 	own := c.Own
 	own.Layers = append(own.Layers[:0:0], c.Own.Layers...)
 	own.Layers[n-1].ThicknessMM = &t
-	st, hash, err := s.analyseLine(r.Context(), c.Set, c.Line, own, c.Fit)
+	lib, err := s.library(r.Context())
+	if err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	st, hash, err := s.results.Compute(lib, c.Set, c.Line, own, c.Fit)
 	if err != nil {
 		s.fail(w, r, err)
 		return

@@ -42,7 +42,7 @@ func (s *Server) costsEdit(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	lib, err := s.store.Library(r.Context())
+	lib, err := s.library(r.Context())
 	if err != nil {
 		s.fail(w, r, err)
 		return

@@ -7,6 +7,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/catalog"
+	"lagwright/results"
 )
 
 // costsExample handles POST /projects/{id}/costs/example: it adds the labelled example
@@ -28,7 +29,7 @@ func (s *Server) costsExample(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, Invalid(FieldError{Field: "version", Message: "is required (the version of the project you saw)"}))
 		return
 	}
-	lib, err := s.store.Library(r.Context())
+	lib, err := s.library(r.Context())
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -40,7 +41,7 @@ func (s *Server) costsExample(w http.ResponseWriter, r *http.Request) {
 	}
 	var mats []string
 	for _, l := range lines {
-		own, _, err := decodeLine(l)
+		own, _, err := results.Decode(l)
 		if err != nil {
 			continue
 		}

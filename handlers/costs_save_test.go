@@ -8,6 +8,7 @@ import (
 	"strings"
 	"testing"
 
+	"lagwright/results"
 	"lagwright/store/storetest"
 )
 
@@ -55,7 +56,7 @@ func TestCostTable(t *testing.T) {
 		t.Fatalf("good paste = %d, want 303\n%s", rec.Code, rec.Body)
 	}
 	got, _ := st.Project(ctx, p.ID)
-	gs, _ := ProjectSettings(got)
+	gs, _ := results.Settings(got)
 	if len(gs.CostTable) != 2 || gs.CostTable[0].ThicknessMM != 50.8 || gs.CostTable[0].CostPerM != 100 ||
 		gs.CostTable[1].NominalSize != "any" || gs.CostTable[1].ThicknessMM != 38.1 {
 		t.Errorf("saved table %+v", gs.CostTable)
@@ -79,7 +80,7 @@ func TestCostTable(t *testing.T) {
 		t.Error("example rows are not labelled")
 	}
 	got, _ = st.Project(ctx, p.ID)
-	gs, _ = ProjectSettings(got)
+	gs, _ = results.Settings(got)
 	examples := 0
 	for _, r := range gs.CostTable {
 		if r.Example {

@@ -45,7 +45,7 @@ func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	lib, err := s.store.Library(r.Context())
+	lib, err := s.library(r.Context())
 	if err != nil {
 		s.fail(w, r, err)
 		return

@@ -12,6 +12,7 @@ import (
 	"lagwright/analysis"
 	"lagwright/catalog"
 	"lagwright/linelist"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/units"
 )
@@ -51,11 +52,11 @@ func (s *Server) planImport(ctx context.Context, p store.Project, text []byte, p
 			return plan, nil
 		}
 	}
-	set, err := ProjectSettings(p)
+	set, err := results.Settings(p)
 	if err != nil {
 		return nil, err
 	}
-	lib, err := s.store.Library(ctx)
+	lib, err := s.library(ctx)
 	if err != nil {
 		return nil, err
 	}
@@ -124,7 +125,7 @@ func (s *Server) planImport(ctx context.Context, p store.Project, text []byte, p
 		for k, i := range idx {
 			in[k] = effective[i]
 		}
-		out, err := analysis.AnalyseMany(in, lib)
+		out, err := s.results.ComputeMany(lib, in)
 		if err != nil {
 			return nil, err
 		}
@@ -169,7 +170,7 @@ func (s *Server) planImport(ctx context.Context, p store.Project, text []byte, p
 		plan.Lines[i] = store.Line{
 			ProjectID: p.ID, Tag: r.Tag, Service: r.Service, Location: r.Location, Exposure: r.Exposure, Notes: r.Notes,
 			Input: own, Fittings: fit, Result: plan.Results[i].Marshal(),
-			ResultHash: analysis.ResultHash(effective[i], versions(lib, effective[i])),
+			ResultHash: results.Hash(lib, effective[i]),
 		}
 		plan.Materials[i], _ = r.Input.Slugs()
 	}

@@ -17,6 +17,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/linelist"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/store/storetest"
 	"lagwright/units"
@@ -79,19 +80,19 @@ func TestImportAPIGoodFile(t *testing.T) {
 	if len(lines) != 4 {
 		t.Fatalf("%d lines saved, want 4", len(lines))
 	}
-	set, _ := ProjectSettings(p)
+	set, _ := results.Settings(p)
 	lib, err := st.Library(context.Background())
 	if err != nil {
 		t.Fatal(err)
 	}
 	wantTags := []string{"HW-1", "CHW-1", "SA-1", "ST-1"}
 	for i, l := range lines {
-		own, fit, err := decodeLine(l)
+		own, fit, err := results.Decode(l)
 		if err != nil {
 			t.Fatal(err)
 		}
 		eff := set.Effective(l.Location, own, fit)
-		if l.Tag != wantTags[i] || l.ResultHash != analysis.ResultHash(eff, versions(lib, eff)) {
+		if l.Tag != wantTags[i] || l.ResultHash != results.Hash(lib, eff) {
 			t.Errorf("line %d: tag %q, hash %q: not as the project page would hash it", i, l.Tag, l.ResultHash)
 		}
 		var res analysis.Stored
@@ -99,12 +100,12 @@ func TestImportAPIGoodFile(t *testing.T) {
 			t.Errorf("line %s: stored result %s", l.Tag, l.Result)
 		}
 	}
-	_, fit0, _ := decodeLine(lines[0])
+	_, fit0, _ := results.Decode(lines[0])
 	if lines[1].Location != "indoor" || lines[3].Location != "outdoor" || lines[0].Notes != "first" || fit0 != (analysis.Fittings{Elbows: 4}) ||
 		lines[2].Exposure != "exposed" {
 		t.Errorf("line fields: %s %s %q %+v", lines[1].Location, lines[3].Location, lines[0].Notes, fit0)
 	}
-	own, _, _ := decodeLine(lines[1])
+	own, _, _ := results.Decode(lines[1])
 	if own.Layers[0].Material != "elastomeric_c534_gr1" {
 		t.Errorf("material by name resolved to %q", own.Layers[0].Material)
 	}
@@ -216,7 +217,7 @@ func TestImportTemplateRoundTrip(t *testing.T) {
 				t.Fatalf("importing the template = %d %+v", code, a)
 			}
 			l := impLines(t, st, p.ID)[0]
-			own, fit, err := decodeLine(l)
+			own, fit, err := results.Decode(l)
 			if err != nil {
 				t.Fatal(err)
 			}

@@ -8,6 +8,7 @@ import (
 	"github.com/a-h/templ"
 	"github.com/go-chi/chi/v5"
 
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/web"
 )
@@ -19,7 +20,7 @@ func (s *Server) lineDuplicate(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	own, _, err := decodeLine(c.line)
+	own, _, err := results.Decode(c.line)
 	if err != nil {
 		s.fail(w, r, err)
 		return

@@ -12,6 +12,7 @@ import (
 	"github.com/go-chi/chi/v5"
 
 	"lagwright/analysis"
+	"lagwright/results"
 	"lagwright/store"
 )
 
@@ -47,7 +48,7 @@ type lineMeta struct {
 }
 
 // lineOut is the JSON of a line with its fresh answer.
-func lineOut(lv LineView) map[string]any {
+func lineOut(lv results.Line) map[string]any {
 	m := jsonMap(lv.Own)
 	var result any = lv.Result.Output
 	if len(lv.Result.Errors) > 0 || lv.Result.Output == nil {
@@ -64,7 +65,7 @@ func lineOut(lv LineView) map[string]any {
 }
 
 // writable is the part of a line's JSON that a client may send back.
-func writable(lv LineView) map[string]any {
+func writable(lv results.Line) map[string]any {
 	m := jsonMap(lineOut(lv))
 	for _, k := range lineReadOnly {
 		delete(m, k)
@@ -104,7 +105,11 @@ func (s *Server) decodeLineBody(ctx context.Context, set analysis.ProjectSetting
 	}
 	fe = addMissing(fe, lf.validateMeta())
 	row := lf.line(projectID)
-	stored, hash, err := s.analyseLine(ctx, set, row, lf.Input, lf.Fittings)
+	lib, err := s.library(ctx)
+	if err != nil {
+		return lf, row, err
+	}
+	stored, hash, err := s.results.Compute(lib, set, row, lf.Input, lf.Fittings)
 	if err != nil {
 		return lf, row, err
 	}
@@ -130,27 +135,12 @@ func addMissing(fe, more analysis.FieldErrors) analysis.FieldErrors {
 }
 
 // freshLine is one stored line with a fresh answer (recomputed and saved only if stale).
-func (s *Server) freshLine(ctx context.Context, set analysis.ProjectSettings, l store.Line) (LineView, error) {
-	own, fit, err := decodeLine(l)
+func (s *Server) freshLine(ctx context.Context, set analysis.ProjectSettings, l store.Line) (results.Line, error) {
+	lib, err := s.library(ctx)
 	if err != nil {
-		return LineView{}, err
+		return results.Line{}, err
 	}
-	lib, err := s.store.Library(ctx)
-	if err != nil {
-		return LineView{}, err
-	}
-	lv := LineView{Line: l, Own: own, Fittings: fit, Effective: set.Effective(l.Location, own, fit)}
-	hash := analysis.ResultHash(lv.Effective, versions(lib, lv.Effective))
-	if hash == l.ResultHash && len(l.Result) > 0 && json.Unmarshal(l.Result, &lv.Result) == nil {
-		return lv, nil
-	}
-	res, err := analysis.AnalyseMany([]analysis.Input{lv.Effective}, lib)
-	if err != nil {
-		return LineView{}, err
-	}
-	lv.Result = res[0]
-	lv.Line.Result, lv.Line.ResultHash = res[0].Marshal(), hash
-	return lv, s.store.SaveResults(ctx, []store.ResultUpdate{{LineID: l.ID, Result: lv.Line.Result, Hash: hash}})
+	return s.results.One(ctx, set, lib, l)
 }
 
 func (s *Server) apiLines(w http.ResponseWriter, r *http.Request) {
@@ -213,7 +203,7 @@ func (s *Server) apiLineLoad(r *http.Request) (analysis.ProjectSettings, store.L
 	if err != nil {
 		return analysis.ProjectSettings{}, store.Line{}, err
 	}
-	set, err := ProjectSettings(p)
+	set, err := results.Settings(p)
 	if err != nil {
 		return set, store.Line{}, err
 	}
@@ -248,12 +238,12 @@ func (s *Server) apiLinePatch(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	own, fit, err := decodeLine(l)
+	own, fit, err := results.Decode(l)
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
-	cur := writable(LineView{Line: l, Own: own, Fittings: fit})
+	cur := writable(results.Line{Line: l, Own: own, Fittings: fit})
 	lf, row, err := s.decodeLineBody(r.Context(), set, l.ProjectID, mergePatch(cur, patch))
 	if err != nil {
 		s.fail(w, r, err)

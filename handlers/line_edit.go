@@ -12,6 +12,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/catalog"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/units"
 	"lagwright/web"
@@ -35,7 +36,7 @@ func (s *Server) loadLineCtx(r *http.Request, withLine bool) (*lineCtx, error) {
 	if err != nil {
 		return nil, err
 	}
-	set, err := ProjectSettings(p)
+	set, err := results.Settings(p)
 	if err != nil {
 		return nil, err
 	}
@@ -52,7 +53,7 @@ func (s *Server) loadLineCtx(r *http.Request, withLine bool) (*lineCtx, error) {
 			return nil, err
 		}
 	}
-	if c.lib, err = s.store.Library(r.Context()); err != nil {
+	if c.lib, err = s.library(r.Context()); err != nil {
 		return nil, err
 	}
 	return c, nil
@@ -63,7 +64,7 @@ func (c *lineCtx) ownInput() *analysis.Input {
 	if c.line.ID == 0 {
 		return nil
 	}
-	own, _, err := decodeLine(c.line)
+	own, _, err := results.Decode(c.line)
 	if err != nil {
 		return nil
 	}
@@ -133,7 +134,7 @@ func (s *Server) lineView(c *lineCtx, st *formState, res web.LineResults) web.Li
 // compute analyses a line as typed (nothing saved) and returns its results.
 func (s *Server) compute(ctx context.Context, c *lineCtx, lf lineFields) (analysis.Stored, string, analysis.Input) {
 	l := lf.line(c.p.ID)
-	st, hash, err := s.analyseLine(ctx, c.set, l, lf.Input, lf.Fittings)
+	st, hash, err := s.results.Compute(c.lib, c.set, l, lf.Input, lf.Fittings)
 	if err != nil {
 		st = analysis.Stored{Errors: analysis.FieldErrors{{Message: "The calculation failed: " + err.Error()}}}
 	}
@@ -160,21 +161,14 @@ func (s *Server) lineShow(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	own, fit, err := decodeLine(c.line)
+	lv, err := s.results.One(r.Context(), c.set, c.lib, c.line)
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
-	ctx := r.Context()
-	res, _, err := s.analyseLine(ctx, c.set, c.line, own, fit)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
-	eff := c.set.Effective(c.line.Location, own, fit)
-	st := lineFormValues(c.line, own, fit, c.sys)
+	st := lineFormValues(c.line, lv.Own, lv.Fittings, c.sys)
 	w.Header().Set("Cache-Control", "no-store")
-	templ.Handler(web.LinePage(s.lineView(c, st, buildResults(eff, res, c.sys, nameLookup{c.lib})))).ServeHTTP(w, r)
+	templ.Handler(web.LinePage(s.lineView(c, st, buildResults(lv.Effective, lv.Result, c.sys, nameLookup{c.lib})))).ServeHTTP(w, r)
 }
 
 // lineResults computes the form as typed: the results fragment for htmx, the whole page

@@ -12,6 +12,7 @@ import (
 	"time"
 
 	"lagwright/analysis"
+	"lagwright/results"
 	"lagwright/store"
 )
 
@@ -42,7 +43,7 @@ type projectJSON struct {
 }
 
 func projectOut(p store.Project) (projectJSON, error) {
-	set, err := ProjectSettings(p)
+	set, err := results.Settings(p)
 	return projectJSON{ID: p.ID, Name: p.Name, Client: p.Client, Site: p.Site, Units: p.Units, Settings: set,
 		Version: p.Version, CreatedAt: p.CreatedAt, UpdatedAt: p.UpdatedAt}, err
 }

@@ -13,6 +13,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/catalog"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/units"
 	"lagwright/web"
@@ -391,7 +392,7 @@ func (s *Server) loadProjectSettings(r *http.Request) (store.Project, analysis.P
 	if err != nil {
 		return p, analysis.ProjectSettings{}, err
 	}
-	set, err := ProjectSettings(p)
+	set, err := results.Settings(p)
 	return p, set, err
 }
 

@@ -11,13 +11,14 @@ import (
 	"testing"
 
 	"lagwright/analysis"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/store/storetest"
 	"lagwright/units"
 )
 
 // TestProjectLineListFromSummaries: the line list built from the stored answers' cut-down
-// summaries (listLines) shows exactly what the whole answers show, for every demo line
+// summaries (results.List) shows exactly what the whole answers show, for every demo line
 // (pipes, ducts, steam, cold lines, the two wrong on purpose), first through the hash
 // and then through the saved freshness keys.
 func TestProjectLineListFromSummaries(t *testing.T) {
@@ -46,7 +47,7 @@ func TestProjectLineListFromSummaries(t *testing.T) {
 		if want := []int{0, len(raw)}[pass]; keyed != want {
 			t.Fatalf("pass %d: %d of %d lines keyed, want %d", pass, keyed, len(raw), want)
 		}
-		slim, err := s.listLines(ctx, p, set, lib)
+		slim, _, err := s.results.List(ctx, p, set, lib)
 		if err != nil || len(slim) != len(whole) {
 			t.Fatalf("pass %d: %d lines, %v", pass, len(slim), err)
 		}
@@ -143,7 +144,7 @@ func TestProjectLineListKeys(t *testing.T) {
 		t.Fatal("marker lost")
 	}
 	pr, _ := st.Project(ctx, p.ID)
-	set, _ := ProjectSettings(pr)
+	set, _ := results.Settings(pr)
 	set.Indoor.AmbientTempC = 31
 	pr.Settings, _ = json.Marshal(set)
 	if _, err := st.UpdateProject(ctx, pr); err != nil {

@@ -11,6 +11,7 @@ import (
 	"testing"
 
 	"lagwright/analysis"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/store/storetest"
 )
@@ -92,7 +93,7 @@ func TestProjectPagesCreateEdit(t *testing.T) {
 		t.Fatalf("after create: %d projects, Location %q", len(list), rec.Header().Get("Location"))
 	}
 	p := list[0].Project
-	set, _ := ProjectSettings(p)
+	set, _ := results.Settings(p)
 	for _, c := range []struct {
 		name      string
 		got, want float64

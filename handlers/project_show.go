@@ -15,6 +15,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/catalog"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/units"
 	"lagwright/web"
@@ -115,7 +116,7 @@ func fmtOpt(q units.Quantity, sys units.System, p *float64) string {
 }
 
 // buildListRow turns a stored line into its row in the project's units.
-func buildListRow(pid int64, lv LineView, sys units.System, names nameLookup) listRow {
+func buildListRow(pid int64, lv results.Line, sys units.System, names nameLookup) listRow {
 	in, o := lv.Effective, lv.Result.Output
 	keys := lineStatus(in, lv.Result)
 	r := listRow{str: map[string]string{}, num: map[string]*float64{}}
@@ -285,7 +286,7 @@ func tagDigits(s string) string {
 
 // projectShow is the project page: the line list with computed columns, sorting,
 // totals and each line's status. It reads only each stored answer's summary
-// (listLines); stale answers are recomputed (once) and saved; a view of fresh lines does
+// (results.List); stale answers are recomputed (once) and saved; a view of fresh lines does
 // no physics and, once their freshness keys are saved, no hashing. The table part of
 // the page (ProjectLineTable) is kept rendered in memory (tableCache) under a key read
 // from the database in one query (store.ListFingerprint with the project's version,
@@ -339,11 +340,11 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 // projectTable builds the line list of the page whose head is v: rows, sorting,
 // totals and status counts. fresh says no line needed recomputing.
 func (s *Server) projectTable(ctx context.Context, p store.Project, set analysis.ProjectSettings, sortParam string, v web.ProjectPageView) (web.ProjectPageView, bool, error) {
-	lib, err := s.store.Library(ctx)
+	lib, err := s.library(ctx)
 	if err != nil {
 		return v, false, err
 	}
-	views, fresh, err := s.listLinesFresh(ctx, p, set, lib)
+	views, fresh, err := s.results.List(ctx, p, set, lib)
 	if err != nil {
 		return v, false, err
 	}

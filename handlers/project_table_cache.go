@@ -9,6 +9,7 @@ import (
 	"github.com/a-h/templ"
 
 	"lagwright/calc"
+	"lagwright/results"
 )
 
 // tableCacheSize bounds each server's table cache (a 500-line table is ~0.6 MB).
@@ -78,7 +79,7 @@ func (s *Server) tables() *tableCache { return s.tableCache }
 
 func newTableKey(project int64, version int, units, sort, fingerprint string) tableKey {
 	return tableKey{project: project, version: version, units: units, sort: sort, fingerprint: fingerprint,
-		method: calc.MethodVersion, build: buildID()}
+		method: calc.MethodVersion, build: results.BuildID()}
 }
 
 // rawHTML writes already rendered (and escaped) HTML.

@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"lagwright/analysis"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/store/storetest"
 )
@@ -126,7 +127,7 @@ func TestProjectTableCache(t *testing.T) {
 
 	// The project's settings change: recomputed, the marker is gone.
 	pr, _ := st.Project(ctx, p.ID)
-	set, _ := ProjectSettings(pr)
+	set, _ := results.Settings(pr)
 	set.Indoor.AmbientTempC = 31
 	pr.Settings, _ = json.Marshal(set)
 	if pr, err = st.UpdateProject(ctx, pr); err != nil {

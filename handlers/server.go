@@ -11,6 +11,7 @@ import (
 
 	"github.com/go-chi/chi/v5"
 
+	"lagwright/results"
 	"lagwright/store"
 )
 
@@ -33,11 +34,13 @@ const DefaultMaxBodyBytes = 10 << 20
 
 // Server holds what every handler needs. Build it with New.
 type Server struct {
-	store  *store.Store
-	log    *slog.Logger
-	cfg    Config
-	assets *assets
-	cop    *http.CrossOriginProtection
+	store *store.Store
+	// results reads every line's answer, recomputing only stale ones (package results).
+	results *results.Results
+	log     *slog.Logger
+	cfg     Config
+	assets  *assets
+	cop     *http.CrossOriginProtection
 	// jobs holds long-running work (imports) by id, so a page can show its progress.
 	jobs sync.Map
 	// tableCache keeps rendered project line tables under keys read from the
@@ -62,7 +65,7 @@ func New(st *store.Store, log *slog.Logger, cfg Config) (*Server, error) {
 			return nil, fmt.Errorf("handlers: trusted origin: %w", err)
 		}
 	}
-	s := &Server{store: st, log: log, cfg: cfg, assets: a, cop: cop, tableCache: newTableCache(tableCacheSize)}
+	s := &Server{store: st, results: results.New(st), log: log, cfg: cfg, assets: a, cop: cop, tableCache: newTableCache(tableCacheSize)}
 	cop.SetDenyHandler(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, &Error{Code: CodeForbidden, Message: "Cross-origin request refused."})
 	}))
@@ -82,6 +85,7 @@ func (s *Server) router() *chi.Mux {
 	r.Use(s.limitBody)
 	r.Use(s.authenticate)
 	r.Use(s.readForm)
+	r.Use(s.oneLibrary)
 	r.NotFound(func(w http.ResponseWriter, r *http.Request) { s.fail(w, r, NotFound("page")) })
 	r.MethodNotAllowed(func(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, &Error{Code: CodeMethodNotAllowed, Message: "This address does not accept " + r.Method + " requests."})

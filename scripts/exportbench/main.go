@@ -15,7 +15,6 @@ package main
 
 import (
 	"context"
-	"encoding/json"
 	"flag"
 	"fmt"
 	"io"
@@ -36,6 +35,7 @@ import (
 	"lagwright/analysis"
 	"lagwright/demo"
 	"lagwright/handlers"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/store/localpg"
 )
@@ -244,7 +244,7 @@ func mb(b int64) string { return fmt.Sprintf("%.0f MB", float64(b)/(1<<20)) }
 // input analysed on both cores, then every result stored (the DESIGN.md target is for
 // the two together).
 func recompute(ctx context.Context, st *store.Store, p store.Project) error {
-	set, err := handlers.ProjectSettings(p)
+	set, err := results.Settings(p)
 	if err != nil {
 		return err
 	}
@@ -260,26 +260,16 @@ func recompute(ctx context.Context, st *store.Store, p store.Project) error {
 	inputs := make([]analysis.Input, len(lines))
 	hashes := make([]string, len(lines))
 	for i, l := range lines {
-		var own analysis.Input
-		var fit analysis.Fittings
-		if err := json.Unmarshal(l.Input, &own); err != nil {
+		own, fit, err := results.Decode(l)
+		if err != nil {
 			return err
 		}
-		_ = json.Unmarshal(l.Fittings, &fit)
 		inputs[i] = set.Effective(l.Location, own, fit)
-		mats, jacket := inputs[i].Slugs()
-		v := analysis.Versions{}
-		for _, m := range mats {
-			v["material:"+m] = lib.Version("material:" + m)
-		}
-		if jacket != "" {
-			v["jacket:"+jacket] = lib.Version("jacket:" + jacket)
-		}
-		hashes[i] = analysis.ResultHash(inputs[i], v)
+		hashes[i] = results.Hash(lib, inputs[i])
 	}
 	tPrep := time.Since(t0)
 	t1 := time.Now()
-	results, err := analysis.AnalyseMany(inputs, lib)
+	answers, err := analysis.AnalyseMany(inputs, lib)
 	if err != nil {
 		return err
 	}
@@ -287,7 +277,7 @@ func recompute(ctx context.Context, st *store.Store, p store.Project) error {
 	t2 := time.Now()
 	ups := make([]store.ResultUpdate, len(lines))
 	for i, l := range lines {
-		ups[i] = store.ResultUpdate{LineID: l.ID, Result: results[i].Marshal(), Hash: hashes[i]}
+		ups[i] = store.ResultUpdate{LineID: l.ID, Result: answers[i].Marshal(), Hash: hashes[i]}
 	}
 	tJSON := time.Since(t2)
 	t3 := time.Now()
