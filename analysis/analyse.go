@@ -293,13 +293,10 @@ func (a *analyser) pipeMaterialCautions() {
 func (a *analyser) dewPoint() error {
 	l, o := a.l, a.out
 	set := l.condensation
-	if set.rh == nil {
+	if !set.humid() {
 		return nil
 	}
-	dp, err := calc.DewPoint(set.air.TempC, *set.rh)
-	if err != nil {
-		return fmt.Errorf("dew point: %w", err)
-	}
+	dp := *set.dew
 	o.DewPointC = a.num(round(dp, 3))
 	o.DewPointKind = "dew point"
 	if calc.IsFrostPoint(dp) {
@@ -310,7 +307,27 @@ func (a *analyser) dewPoint() error {
 		return err
 	}
 	o.CondensationMarginK = a.num(round(coldest(r)-dp, 3))
+	if l.crit.condensation && coldest(r) < dp+l.crit.dewMarginK {
+		a.condensationWarning(r, dp, "as specified")
+	}
 	return nil
+}
+
+// condensationWarning says that the surface of the line (as specified, or at the governing
+// thickness) falls below the dew point plus margin, and why when the sky is the cause.
+func (a *analyser) condensationWarning(r calc.Result, dp float64, which string) {
+	l := a.l
+	set := l.condensation
+	kind := "dew point"
+	if calc.IsFrostPoint(dp) {
+		kind = "frost point"
+	}
+	l.warn("condensation: with the insulation %s the surface falls to %s °C, below the %s %s °C plus the %s K margin",
+		which, fmtRound(coldest(r), 2), kind, fmtRound(dp, 2), fmtRound(l.crit.dewMarginK, 1))
+	if l.opC >= set.air.TempC && set.air.SurroundingsC < set.air.TempC {
+		l.warn("the surface is cooled below the air by radiation to surroundings at %s °C (a clear night sky): more insulation makes it colder; "+
+			"a low-emittance jacket (bright metal) or shelter reduces it", fmtRound(set.air.SurroundingsC, 1))
+	}
 }
 
 // coldest is the coldest outer-surface temperature (the coldest duct face).

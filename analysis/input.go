@@ -33,11 +33,15 @@ type Input struct {
 	OperatingTempC        *float64 `json:"operating_temp_c,omitempty"`
 	SteamGaugePressureKPa *float64 `json:"steam_gauge_pressure_kpa,omitempty"`
 
-	AmbientTempC        *float64    `json:"ambient_temp_c,omitempty"`
-	SurroundingsTempC   *float64    `json:"surroundings_temp_c,omitempty"`
-	WindMS              *float64    `json:"wind_m_s,omitempty"`
-	RelativeHumidityPct *float64    `json:"relative_humidity_pct,omitempty"`
-	Conditions          *Conditions `json:"conditions,omitempty"`
+	AmbientTempC        *float64 `json:"ambient_temp_c,omitempty"`
+	SurroundingsTempC   *float64 `json:"surroundings_temp_c,omitempty"`
+	WindMS              *float64 `json:"wind_m_s,omitempty"`
+	RelativeHumidityPct *float64 `json:"relative_humidity_pct,omitempty"`
+	DewPointC           *float64 `json:"dew_point_c,omitempty"` // design dew point, instead of the humidity
+	// RelativeHumidityOver is what an RH below 0 °C is relative to: "water" (default, the
+	// weather-data convention) or "ice".
+	RelativeHumidityOver string      `json:"relative_humidity_over,omitempty"`
+	Conditions           *Conditions `json:"conditions,omitempty"`
 
 	Layers           []LayerInput `json:"layers"`
 	Jacket           string       `json:"jacket,omitempty"`
@@ -69,6 +73,7 @@ type ConditionSet struct {
 	SurroundingsTempC   *float64 `json:"surroundings_temp_c,omitempty"`
 	WindMS              *float64 `json:"wind_m_s,omitempty"`
 	RelativeHumidityPct *float64 `json:"relative_humidity_pct,omitempty"`
+	DewPointC           *float64 `json:"dew_point_c,omitempty"`
 	InitialTempC        *float64 `json:"initial_temp_c,omitempty"` // freeze only
 }
 

@@ -143,5 +143,6 @@ type AirOut struct {
 	SurroundingsTempC   float64  `json:"surroundings_temp_c"`
 	WindMS              float64  `json:"wind_m_s"`
 	RelativeHumidityPct *float64 `json:"relative_humidity_pct"`
+	DewPointC           *float64 `json:"dew_point_c"`
 	InitialTempC        *float64 `json:"initial_temp_c,omitempty"`
 }

@@ -33,6 +33,7 @@ type Location struct {
 	SurroundingsTempC   *float64    `json:"surroundings_temp_c,omitempty"`
 	WindMS              float64     `json:"wind_m_s"`
 	RelativeHumidityPct *float64    `json:"relative_humidity_pct,omitempty"`
+	DewPointC           *float64    `json:"dew_point_c,omitempty"` // design dew point, instead of the humidity
 	Conditions          *Conditions `json:"conditions,omitempty"`
 }
 
@@ -95,6 +96,11 @@ func (p ProjectSettings) Validate() error {
 		rangeCheck(&c, pre+"surroundings_temp_c", loc.SurroundingsTempC, -100, 300, "°C")
 		rangeCheck(&c, pre+"wind_m_s", &loc.WindMS, 0, 40, "m/s")
 		rangeCheck(&c, pre+"relative_humidity_pct", loc.RelativeHumidityPct, 0.1, 100, "%")
+		rangeCheck(&c, pre+"dew_point_c", loc.DewPointC, -70, 80, "°C")
+		bothHumidities(&c, pre, loc.RelativeHumidityPct, loc.DewPointC)
+		if loc.DewPointC != nil && *loc.DewPointC > loc.AmbientTempC {
+			c.add(pre+"dew_point_c", "must not be above the ambient temperature")
+		}
 	}
 	rangeCheck(&c, "settings.criteria.max_surface_temp_c", p.Criteria.MaxSurfaceTempC, 20, 200, "°C")
 	rangeCheck(&c, "settings.criteria.dew_margin_k", p.Criteria.DewMarginK, 0, 20, "K")
@@ -126,8 +132,8 @@ func (p ProjectSettings) Effective(location string, line Input, fit Fittings) In
 	if in.WindMS == nil {
 		in.WindMS = ptr(loc.WindMS)
 	}
-	if in.RelativeHumidityPct == nil {
-		in.RelativeHumidityPct = loc.RelativeHumidityPct
+	if in.RelativeHumidityPct == nil && in.DewPointC == nil { // the line's own moisture wins, in either form
+		in.RelativeHumidityPct, in.DewPointC = loc.RelativeHumidityPct, loc.DewPointC
 	}
 	if in.Conditions == nil && loc.Conditions != nil {
 		cs := *loc.Conditions

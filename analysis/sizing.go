@@ -66,7 +66,11 @@ func (a *analyser) size() error {
 	crits, n := a.criteria()
 	for i := range n {
 		c := &crits[i]
-		t, found, err := thinnest(cands, func(t float64) (bool, error) { return a.meets(c, t) })
+		find := thinnest
+		if c.kind == critCondensation && !a.condensationMonotone() {
+			find = thinnestScan
+		}
+		t, found, err := find(cands, func(t float64) (bool, error) { return a.meets(c, t) })
 		if err != nil {
 			return fmt.Errorf("%s: %w", c.label, err)
 		}
@@ -84,6 +88,9 @@ func (a *analyser) size() error {
 		return err
 	}
 	a.governing()
+	if err := a.condensationAtGoverning(); err != nil {
+		return err
+	}
 	return a.heatTrace()
 }
 
@@ -121,6 +128,27 @@ func thinnest(cands []float64, meets func(float64) (bool, error)) (float64, bool
 	return cands[hi], true, nil
 }
 
+// thinnestScan is thinnest without assuming that a thicker layer never does worse: each
+// candidate in turn (a line at or above the air temperature under a cold sky has a colder
+// surface the more it is insulated).
+func thinnestScan(cands []float64, meets func(float64) (bool, error)) (float64, bool, error) {
+	for _, t := range append([]float64{0}, cands...) {
+		ok, err := meets(t)
+		if err != nil || ok {
+			return t, ok, err
+		}
+	}
+	return 0, false, nil
+}
+
+// condensationMonotone reports whether more insulation can only warm the coldest surface:
+// a line colder than both the air and the surroundings at the condensation conditions.
+func (a *analyser) condensationMonotone() bool {
+	l := a.l
+	air := l.condensation.air
+	return l.opC < air.TempC && l.opC < air.SurroundingsC
+}
+
 // criteria lists the criteria switched on for this line: the first n of list.
 func (a *analyser) criteria() (list [5]criterion, n int) {
 	l := a.l
@@ -134,9 +162,8 @@ func (a *analyser) criteria() (list [5]criterion, n int) {
 	}
 	if k.condensation {
 		set := l.condensation
-		dp, _ := calc.DewPoint(set.air.TempC, *set.rh)
-		add(criterion{kind: critCondensation, key: "condensation", label: "condensation control", dew: dp})
-		if *set.rh > 88 {
+		add(criterion{kind: critCondensation, key: "condensation", label: "condensation control", dew: *set.dew})
+		if *set.rh > 88 && l.opC < set.air.TempC {
 			l.warn("relative humidity above about 88 %%: the thickness needed to prevent condensation grows without bound as the air nears saturation")
 		}
 	}
@@ -357,5 +384,23 @@ func (a *analyser) heatTrace() error {
 	o.HeatTraceWPerM = a.num(round(r.HeatFlowPerM*k.heatTraceFactor, 3))
 	l.assume("heat tracing holds %s °C at the freeze conditions with the insulation as specified, times a safety factor %s (our default 1.2)",
 		fmtRound(k.maintainC, 1), fmtNum(k.heatTraceFactor))
+	return nil
+}
+
+// condensationAtGoverning warns when the governing thickness, chosen by another criterion,
+// lets the surface fall below the dew point plus margin (possible only where more
+// insulation makes the surface colder: a line at or above the air under a cold sky).
+func (a *analyser) condensationAtGoverning() error {
+	l, s := a.l, &a.out.Sizing
+	if !l.crit.condensation || s.GoverningThicknessMM == nil || a.condensationMonotone() {
+		return nil
+	}
+	r, err := a.solve(*s.GoverningThicknessMM, l.opC, l.condensation.air)
+	if err != nil {
+		return err
+	}
+	if dp := *l.condensation.dew; coldest(r) < dp+l.crit.dewMarginK {
+		a.condensationWarning(r, dp, "at the governing "+fmtRound(*s.GoverningThicknessMM, 1)+" mm")
+	}
 	return nil
 }

@@ -21,14 +21,28 @@ const (
 // airSet is one resolved condition set.
 type airSet struct {
 	air     calc.Air
-	rh      *float64
+	rh      *float64 // given, or derived from the given dew point
+	dew     *float64 // given, or derived from the given humidity
 	initial *float64 // freeze only
+
+	dewGiven bool   // the dew point was given (rh derived from it)
+	dewField string // the field that gave the dew point or the humidity, for messages
 }
 
 func (a airSet) out() AirOut {
-	return AirOut{AmbientTempC: a.air.TempC, SurroundingsTempC: a.air.SurroundingsC,
-		WindMS: a.air.WindMS, RelativeHumidityPct: a.rh, InitialTempC: a.initial}
+	o := AirOut{AmbientTempC: a.air.TempC, SurroundingsTempC: a.air.SurroundingsC,
+		WindMS: a.air.WindMS, RelativeHumidityPct: a.rh, DewPointC: a.dew, InitialTempC: a.initial}
+	if a.rh != nil {
+		o.RelativeHumidityPct = ptr(round(*a.rh, 3))
+	}
+	if a.dew != nil {
+		o.DewPointC = ptr(round(*a.dew, 3))
+	}
+	return o
 }
+
+// humid reports whether the set knows its moisture (a humidity or a dew point).
+func (a airSet) humid() bool { return a.dew != nil }
 
 // line is a validated input with everything resolved: ready for calc.
 type line struct {
@@ -479,9 +493,19 @@ func resolveConditions(l *line, c *errs) {
 	rangeCheck(c, "surroundings_temp_c", in.SurroundingsTempC, -100, 300, "°C")
 	rangeCheck(c, "wind_m_s", in.WindMS, 0, 40, "m/s")
 	rangeCheck(c, "relative_humidity_pct", in.RelativeHumidityPct, 0.1, 100, "%")
+	rangeCheck(c, "dew_point_c", in.DewPointC, -70, 80, "°C")
+	bothHumidities(c, "", in.RelativeHumidityPct, in.DewPointC)
+	switch in.RelativeHumidityOver {
+	case "", "water", "ice":
+	default:
+		c.add("relative_humidity_over", `must be "water" or "ice"`)
+	}
 	amb := orDefault(in.AmbientTempC, 20)
 	l.design = airSet{air: calc.Air{TempC: amb, SurroundingsC: orDefault(in.SurroundingsTempC, amb), WindMS: orDefault(in.WindMS, 0)},
-		rh: in.RelativeHumidityPct}
+		rh: in.RelativeHumidityPct, dew: in.DewPointC, dewGiven: in.DewPointC != nil, dewField: "relative_humidity_pct"}
+	if in.DewPointC != nil {
+		l.design.dewField = "dew_point_c"
+	}
 	if in.SurroundingsTempC == nil {
 		var buf [64]byte
 		l.assumeText(words{buf[:0]}.s("surroundings at the ambient temperature ").r(amb, 1).s(" °C").String())
@@ -508,6 +532,79 @@ func resolveConditions(l *line, c *errs) {
 	if cs.Freeze != nil {
 		rangeCheck(c, "conditions.freeze.initial_temp_c", cs.Freeze.InitialTempC, -50, 200, "°C")
 	}
+	overWater := in.RelativeHumidityOver != "ice"
+	humidity(l, c, "", &l.design, overWater, true)
+	humidity(l, c, "condensation", &l.condensation, overWater, true)
+	for _, s := range [...]struct {
+		name string
+		set  *airSet
+	}{{"personnel", &l.personnel}, {"freeze", &l.freeze}, {"economics", &l.econ}} {
+		humidity(l, c, s.name, s.set, overWater, false)
+	}
+}
+
+// bothHumidities names both fields when a set gives a humidity and a dew point.
+func bothHumidities(c *errs, prefix string, rh, dew *float64) {
+	if rh != nil && dew != nil {
+		c.add(prefix+"relative_humidity_pct", "give relative_humidity_pct or dew_point_c, not both")
+		c.add(prefix+"dew_point_c", "give relative_humidity_pct or dew_point_c, not both")
+	}
+}
+
+// humidity completes a set's moisture: the dew point from a given humidity, or the
+// humidity from a given dew point. A dew point above the set's air is a field error
+// where the set is used (strict), and otherwise leaves the set without moisture.
+func humidity(l *line, c *errs, name string, s *airSet, overWater, strict bool) {
+	t := s.air.TempC
+	if c.has("ambient_temp_c") || c.has("conditions."+name+".ambient_temp_c") || c.has(s.dewField) {
+		s.rh, s.dew = nil, nil // already named: a derived value would only repeat the error
+		return
+	}
+	switch {
+	case s.dewGiven:
+		if *s.dew > t {
+			s.rh, s.dew = nil, nil
+			if !strict {
+				return
+			}
+			if name != "" && s.dewField == "dew_point_c" { // inherited from the design conditions
+				c.add("conditions."+name+".ambient_temp_c", "is below the design dew point: give the set its own dew_point_c or relative_humidity_pct")
+				return
+			}
+			c.add(s.dewField, "must not be above the air temperature (%s °C)", fmtRound(t, 2))
+			return
+		}
+		rh, err := calc.RelativeHumidity(t, *s.dew, overWater)
+		if err != nil {
+			s.rh, s.dew = nil, nil
+			if strict {
+				c.add(s.dewField, "%s", err.Error())
+			}
+			return
+		}
+		s.rh = ptr(rh)
+		if name == "condensation" {
+			l.assume("condensation judged at the dew point given, %s °C (relative humidity %s %% at %s °C, derived)",
+				fmtRound(*s.dew, 2), fmtRound(rh, 1), fmtRound(t, 1))
+		}
+	case s.rh != nil:
+		dp, err := calc.DewPointRH(t, *s.rh, overWater)
+		if err != nil {
+			s.rh = nil
+			if strict {
+				c.add(s.dewField, "%s", err.Error())
+			}
+			return
+		}
+		s.dew = ptr(dp)
+		if name == "condensation" && t < 0 {
+			basis := "over liquid water (the weather-data convention; relative_humidity_over \"ice\" to change)"
+			if !overWater {
+				basis = "over ice (relative_humidity_over \"ice\")"
+			}
+			l.assume("relative humidity %s %% at %s °C taken %s", fmtRound(*s.rh, 1), fmtRound(t, 1), basis)
+		}
+	}
 }
 
 // conditionSet resolves one per-criterion set: absent values take the design
@@ -526,6 +623,8 @@ func conditionSet(l *line, c *errs, name string, set *ConditionSet, stillAir boo
 	rangeCheck(c, p+"surroundings_temp_c", set.SurroundingsTempC, -100, 300, "°C")
 	rangeCheck(c, p+"wind_m_s", set.WindMS, 0, 40, "m/s")
 	rangeCheck(c, p+"relative_humidity_pct", set.RelativeHumidityPct, 0.1, 100, "%")
+	rangeCheck(c, p+"dew_point_c", set.DewPointC, -70, 80, "°C")
+	bothHumidities(c, p, set.RelativeHumidityPct, set.DewPointC)
 	if set.AmbientTempC != nil {
 		out.air.TempC = *set.AmbientTempC
 		out.air.SurroundingsC = *set.AmbientTempC
@@ -537,7 +636,10 @@ func conditionSet(l *line, c *errs, name string, set *ConditionSet, stillAir boo
 		out.air.WindMS = *set.WindMS
 	}
 	if set.RelativeHumidityPct != nil {
-		out.rh = set.RelativeHumidityPct
+		out.rh, out.dew, out.dewGiven, out.dewField = set.RelativeHumidityPct, nil, false, p+"relative_humidity_pct"
+	}
+	if set.DewPointC != nil {
+		out.rh, out.dew, out.dewGiven, out.dewField = nil, set.DewPointC, true, p+"dew_point_c"
 	}
 	out.initial = set.InitialTempC
 	return out
@@ -784,10 +886,12 @@ func resolveCriteria(l *line, c *errs) {
 		l.assume("personnel protection: surface at most 60 °C (common practice for metal jacketing, on the contact-burn basis of ASTM C1055)")
 	}
 	k.dewMarginK = orDefault(cr.DewMarginK, 1)
-	k.condensation = (cr.Condensation == nil || *cr.Condensation) && l.opC < l.condensation.air.TempC
-	if k.condensation && l.condensation.rh == nil {
-		k.condensation = false
-		l.warn("below-ambient line with no relative humidity given: condensation was not checked")
+	// Condensation is judged wherever the surface can reach the dew point plus margin: it
+	// lies between the fluid and the colder of the air and the surroundings.
+	k.condensation = (cr.Condensation == nil || *cr.Condensation) && l.condensation.humid() &&
+		min(l.opC, l.condensation.air.TempC, l.condensation.air.SurroundingsC) < *l.condensation.dew+k.dewMarginK
+	if (cr.Condensation == nil || *cr.Condensation) && !l.condensation.humid() && l.opC < l.condensation.air.TempC {
+		l.warn("below-ambient line with no relative humidity or dew point given: condensation was not checked")
 	}
 	k.maxHeatFlow = cr.MaxHeatFlowWPerM
 	k.maxTempChange = cr.MaxTempChangeK

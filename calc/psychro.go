@@ -123,3 +123,78 @@ func DewPoint(dryBulbC, rhPct float64) (float64, error) {
 // IsFrostPoint reports whether a dew point dpC (°C) is a frost point: vapour deposits as
 // frost (over ice) rather than condensing as water, which is so below 0 °C.
 func IsFrostPoint(dpC float64) bool { return dpC < 0 }
+
+// Relative humidity below 0 °C is quoted either over liquid (supercooled) water — the
+// convention of weather observations and design weather data (WMO) — or over ice. Over
+// water, the saturation pressure is the Hyland–Wexler liquid-water equation (ASHRAE
+// Fundamentals 2017 ch. 1 eq. 6) carried below 0 °C; it agrees with Murphy & Koop (2005)
+// eq. 10 for supercooled water within 0.1 % down to −20 °C and 1 % down to −40 °C.
+
+// SaturationPressureOverWater returns the saturation pressure of water vapour over liquid
+// water, Pa, at tempC, supercooled below 0 °C; valid −50 … 200 °C.
+func SaturationPressureOverWater(tempC float64) (float64, error) {
+	if math.IsNaN(tempC) || tempC < -50 || tempC > PsychroMaxC {
+		return 0, fmt.Errorf("calc: temperature %g °C is outside −50 … %g °C for saturation over liquid water", tempC, PsychroMaxC)
+	}
+	t := tempC + 273.15
+	return math.Exp(hwC8/t + hwC9 + t*(hwC10+t*(hwC11+t*hwC12)) + hwC13*math.Log(t)), nil
+}
+
+// DewPointRH returns the dew (or frost) point, °C, of air at dryBulbC and relative humidity
+// rhPct. overWater takes an RH below 0 °C as over liquid water (weather data); otherwise it
+// is over ice, as DewPoint takes it. At and above 0.01 °C the two agree.
+func DewPointRH(dryBulbC, rhPct float64, overWater bool) (float64, error) {
+	if !overWater || dryBulbC >= TriplePointC {
+		return DewPoint(dryBulbC, rhPct)
+	}
+	if math.IsNaN(rhPct) || rhPct <= 0 || rhPct > 100 {
+		return 0, fmt.Errorf("calc: relative humidity %g %% must be greater than 0 and at most 100", rhPct)
+	}
+	pw, err := SaturationPressureOverWater(dryBulbC)
+	if err != nil {
+		return 0, err
+	}
+	return DewPointOfVapourPressure(pw * rhPct / 100)
+}
+
+// DewPointOfVapourPressure returns the temperature, °C, at which a vapour pressure pvPa
+// saturates (over ice below 0.01 °C: a frost point), by bisection on Hyland–Wexler to 1e-9 K.
+func DewPointOfVapourPressure(pvPa float64) (float64, error) {
+	lo, hi := PsychroMinC, PsychroMaxC
+	pLo, _ := SaturationPressure(lo)
+	pHi, _ := SaturationPressure(hi)
+	if math.IsNaN(pvPa) || pvPa < pLo || pvPa > pHi {
+		return 0, fmt.Errorf("calc: vapour pressure %g Pa saturates outside the psychrometric range %g … %g °C", pvPa, PsychroMinC, PsychroMaxC)
+	}
+	target := math.Log(pvPa)
+	for hi-lo > 1e-9 {
+		mid := (lo + hi) / 2
+		if f, _ := lnPws(mid); f < target {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return (lo + hi) / 2, nil
+}
+
+// RelativeHumidity returns the relative humidity, %, of air at dryBulbC whose dew (or
+// frost) point is dewPointC: p_ws(dew point)/p_ws(dry bulb), the latter over liquid water
+// below 0 °C when overWater, over ice otherwise.
+func RelativeHumidity(dryBulbC, dewPointC float64, overWater bool) (float64, error) {
+	if dewPointC > dryBulbC {
+		return 0, fmt.Errorf("calc: dew point %g °C is above the air temperature %g °C", dewPointC, dryBulbC)
+	}
+	pv, err := SaturationPressure(dewPointC)
+	if err != nil {
+		return 0, err
+	}
+	ps, err := SaturationPressure(dryBulbC)
+	if overWater && dryBulbC < TriplePointC {
+		ps, err = SaturationPressureOverWater(dryBulbC)
+	}
+	if err != nil {
+		return 0, err
+	}
+	return 100 * pv / ps, nil
+}

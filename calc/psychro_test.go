@@ -177,3 +177,71 @@ func FuzzDewPoint(f *testing.F) {
 		}
 	})
 }
+
+func TestSaturationOverSupercooledWater(t *testing.T) {
+	// Murphy & Koop (2005), Q. J. R. Meteorol. Soc. 131:1539, eq. 10 (liquid water, 123–332 K),
+	// evaluated at these temperatures (formula from memory; it gives 611.657 Pa at the triple
+	// point, the IAPWS value): over supercooled water.
+	cases := []struct{ tempC, wantPa, tol float64 }{
+		{-5, 421.761, 0.0005},
+		{-10, 286.453, 0.0005},
+		{-20, 125.504, 0.0015},
+		{-40, 18.912, 0.01},
+	}
+	for _, c := range cases {
+		got, err := SaturationPressureOverWater(c.tempC)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if rel := math.Abs(got-c.wantPa) / c.wantPa; rel > c.tol {
+			t.Errorf("over water at %g °C = %.4g Pa, want %g (rel. %.2g)", c.tempC, got, c.wantPa, rel)
+		}
+		ice, _ := SaturationPressure(c.tempC)
+		if !(got > ice) {
+			t.Errorf("at %g °C supercooled water (%g Pa) must hold more vapour than ice (%g Pa) (fact of physics)", c.tempC, got, ice)
+		}
+	}
+}
+
+func TestDewPointRHBasis(t *testing.T) {
+	// −10 °C, 80 % RH over water (weather-data convention): p_v = 0.8 × 286.45 = 229.2 Pa
+	// (Murphy & Koop 2005 eq. 10 for p_w); over ice ASHRAE Fundamentals 2017 ch. 1 Table 3
+	// gives p_ws(−12 °C) = 217.6 Pa and (−11) = 237.6 Pa (from memory), so the frost point
+	// lies between −12 and −11 °C, near −11.4 °C (interpolated in ln p).
+	fp, err := DewPointRH(-10, 80, true)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(fp-(-11.43)) > 0.05 {
+		t.Errorf("frost point at −10 °C, 80 %% over water = %.3f °C, want about −11.43", fp)
+	}
+	// Over ice the same 80 % is drier air: p_v = 0.8 × 259.9 Pa (ASHRAE Table 3, −10 °C, from memory).
+	fi, _ := DewPointRH(-10, 80, false)
+	if !(fi < fp) {
+		t.Errorf("over ice %.3f °C must be below over water %.3f °C", fi, fp)
+	}
+	// Above 0 °C the basis does not matter, and RelativeHumidity inverts DewPointRH.
+	for _, c := range []struct {
+		db, rh float64
+		water  bool
+	}{{25, 80, true}, {25, 80, false}, {-10, 80, true}, {-10, 80, false}, {-25, 60, true}} {
+		dp, err := DewPointRH(c.db, c.rh, c.water)
+		if err != nil {
+			t.Fatal(err)
+		}
+		rh, err := RelativeHumidity(c.db, dp, c.water)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(rh-c.rh) > 1e-5 {
+			t.Errorf("RelativeHumidity(%g, %g, %v) = %g, want %g", c.db, dp, c.water, rh, c.rh)
+		}
+	}
+	a, _ := DewPointRH(25, 80, true)
+	if math.Abs(a-21.3094) > 0.01 {
+		t.Errorf("DewPointRH(25, 80) = %.4f, want 21.3094 (PsychroLib documented example)", a)
+	}
+	if _, err := RelativeHumidity(10, 12, true); err == nil {
+		t.Error("a dew point above the air temperature must be an error")
+	}
+}

@@ -35,6 +35,7 @@ func airFields(prefix string, freeze bool) []numField {
 		{Key: prefix + "surroundings_temp_c", Q: units.Temp, Label: "Surroundings"},
 		{Key: prefix + "wind_m_s", Q: units.Speed, Label: "Wind"},
 		{Key: prefix + "relative_humidity_pct", Label: "Relative humidity"},
+		{Key: prefix + "dew_point_c", Q: units.Temp, Label: "Dew point"},
 	}
 	if freeze {
 		f = append(f, numField{Key: prefix + "initial_temp_c", Q: units.Temp, Label: "Initial water temperature"})
@@ -126,6 +127,11 @@ func (p *projectInput) validate() analysis.FieldErrors {
 			rng(pre+"surroundings_temp_c", cs.SurroundingsTempC, -100, 300)
 			rng(pre+"wind_m_s", cs.WindMS, 0, 40)
 			rng(pre+"relative_humidity_pct", cs.RelativeHumidityPct, 0.1, 100)
+			rng(pre+"dew_point_c", cs.DewPointC, -70, 80)
+			if cs.RelativeHumidityPct != nil && cs.DewPointC != nil {
+				add(pre+"relative_humidity_pct", "give the relative humidity or the dew point, not both")
+				add(pre+"dew_point_c", "give the relative humidity or the dew point, not both")
+			}
 			rng(pre+"initial_temp_c", cs.InitialTempC, 0, 850)
 		}
 	}

@@ -130,6 +130,8 @@ func buildColumns() []column {
 		text("fluid", "fluid", func(b *builder) *string { return &b.row.Input.Fluid }, func(r *Row) string { return r.Input.Fluid }),
 		qty("operating_temp", "operating_temp_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.row.Input.OperatingTempC },
 			func(in *analysis.Input) *float64 { return in.OperatingTempC }),
+		qty("dew_point", "dew_point_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.row.Input.DewPointC },
+			func(in *analysis.Input) *float64 { return in.DewPointC }),
 		qty("steam_pressure", "steam_gauge_pressure_kpa", units.Pressure, uPressure,
 			func(b *builder) **float64 { return &b.row.Input.SteamGaugePressureKPa },
 			func(in *analysis.Input) *float64 { return in.SteamGaugePressureKPa }),

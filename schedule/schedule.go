@@ -93,6 +93,7 @@ type Conditions struct {
 	SurroundingsC *float64 `json:"surroundings_temp_c,omitempty"`
 	WindMS        float64  `json:"wind_m_s"`
 	RHPct         *float64 `json:"relative_humidity_pct,omitempty"`
+	DewPointC     *float64 `json:"dew_point_c,omitempty"`
 }
 
 // Row is one line of the schedule, in SI. Pointers are nil where a value does not apply
@@ -226,7 +227,7 @@ func header(p Project, rev int, date time.Time) Header {
 }
 
 func conditions(l analysis.Location) Conditions {
-	return Conditions{AmbientC: l.AmbientTempC, SurroundingsC: l.SurroundingsTempC, WindMS: l.WindMS, RHPct: l.RelativeHumidityPct}
+	return Conditions{AmbientC: l.AmbientTempC, SurroundingsC: l.SurroundingsTempC, WindMS: l.WindMS, RHPct: l.RelativeHumidityPct, DewPointC: l.DewPointC}
 }
 
 func ptr[T any](v T) *T { return &v }

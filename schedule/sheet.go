@@ -70,6 +70,9 @@ func (f fmtr) air(a analysis.AirOut) string {
 	if a.RelativeHumidityPct != nil {
 		s += ", RH " + strconv.FormatFloat(*a.RelativeHumidityPct, 'f', -1, 64) + " %"
 	}
+	if a.DewPointC != nil {
+		s += ", dew point " + f.q(units.Temp, *a.DewPointC)
+	}
 	if a.InitialTempC != nil {
 		s += ", water initially at " + f.q(units.Temp, *a.InitialTempC)
 	}

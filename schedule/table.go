@@ -457,6 +457,9 @@ func (c conv) conditions(h Header) [][2]string {
 		if l.RHPct != nil {
 			s += ", RH " + strconv.FormatFloat(*l.RHPct, 'f', -1, 64) + " %"
 		}
+		if l.DewPointC != nil {
+			s += ", dew point " + units.FormatUnit(units.Temp, sys, *l.DewPointC)
+		}
 		return s + ", wind " + units.FormatUnit(units.Speed, sys, l.WindMS)
 	}
 	f := h.Fittings

@@ -1,0 +1,139 @@
+package analysis
+
+import (
+	"slices"
+	"strings"
+	"testing"
+)
+
+// fieldNames lists the fields a FieldErrors names.
+func fieldNames(fe FieldErrors) []string {
+	var out []string
+	for _, e := range fe {
+		out = append(out, e.Field)
+	}
+	return out
+}
+
+// A line at the air temperature under a clear night sky: radiation to the sky cools the
+// jacket below the air and below the dew point. Condensation must be judged although the
+// line is not colder than the air.
+func TestCondensationUnderColdSky(t *testing.T) {
+	out := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":20,"ambient_temp_c":20,"surroundings_temp_c":-20,
+		"relative_humidity_pct":85,"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":50.8}],"jacket":"painted_metal"}`)
+	// Dew point at 20 °C, 85 %: 17.4027 °C (PsychroLib 1.1.1, GetTDewPointFromRelHum, computed).
+	if out.DewPointC == nil {
+		t.Fatal("no dew point")
+	}
+	near(t, "dew_point_c", *out.DewPointC, 17.4027, 0.001)
+	// A painted jacket (ε 0.9) facing a sky 40 K below the air in still air loses about
+	// 0.9·σ·(293⁴ − 253⁴) ≈ 180 W/m² by radiation, which the air can resupply only through a
+	// film of a few W/m²·K: the surface sits well below the air (physics of the night-sky
+	// radiation, common practice); the issue measured about 2 °C.
+	if out.SurfaceTempC > 10 {
+		t.Errorf("surface %.2f °C: want well below the air under a −20 °C sky", out.SurfaceTempC)
+	}
+	if out.CondensationMarginK == nil || *out.CondensationMarginK >= 0 {
+		t.Fatalf("condensation_margin_k = %v, want negative", out.CondensationMarginK)
+	}
+	if !containsAny(out.Warnings, "condensation: with the insulation as specified") || !containsAny(out.Warnings, "night sky") {
+		t.Errorf("want the condensation and night-sky warnings, got %q", out.Warnings)
+	}
+	// Sized the same way: the thinnest candidate that keeps the surface above dew point + margin.
+	// More insulation only makes the surface colder here, so that is the bare pipe (0 mm).
+	if out.Sizing.CondensationMM == nil || *out.Sizing.CondensationMM != 0 {
+		t.Errorf("condensation_mm = %v, want 0 (the bare pipe stays at the fluid temperature)", out.Sizing.CondensationMM)
+	}
+	// The same line under surroundings at the air temperature cannot condense: not judged.
+	warm := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":20,"ambient_temp_c":20,
+		"relative_humidity_pct":85,"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":50.8}],"jacket":"painted_metal"}`)
+	if warm.Sizing.CondensationMM != nil || containsAny(warm.Warnings, "condensation:") {
+		t.Errorf("a 20 °C line in 20 °C surroundings cannot reach a 17 °C dew point: %v %q", warm.Sizing.CondensationMM, warm.Warnings)
+	}
+}
+
+// A hot line whose economic or other governing thickness condenses under the sky is warned.
+func TestCondensationAtGoverningUnderSky(t *testing.T) {
+	out := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":25,"ambient_temp_c":10,"surroundings_temp_c":-30,
+		"relative_humidity_pct":95,"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"painted_metal",
+		"criteria":{"max_heat_flow_w_per_m":5}}`)
+	if out.Sizing.Governing == nil || *out.Sizing.Governing != "max_heat_flow" {
+		t.Fatalf("governing = %v", out.Sizing.Governing)
+	}
+	if !containsAny(out.Warnings, "condensation: with the insulation at the governing") {
+		t.Errorf("want a warning that the governing thickness condenses, got %q", out.Warnings)
+	}
+}
+
+// The design dew point as an input: the same air given by its humidity or its dew point
+// gives the same answer.
+func TestDewPointInput(t *testing.T) {
+	line := `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":5,"ambient_temp_c":25,%s,
+		"layers":[{"material":"elastomeric_c534_gr1","thickness_mm":19}],"jacket":"pvc_jacket"}`
+	byDew := mustRun(t, strings.Replace(line, "%s", `"dew_point_c":18`, 1))
+	// RH at 25 °C with an 18 °C dew point: 65.1357 % (PsychroLib 1.1.1, GetRelHumFromTDewPoint, computed).
+	byRH := mustRun(t, strings.Replace(line, "%s", `"relative_humidity_pct":65.1357`, 1))
+	near(t, "dew_point_c", *byDew.DewPointC, 18, 1e-6)
+	near(t, "dew_point_c by RH", *byRH.DewPointC, 18, 0.0005)
+	rh := byDew.ConditionsUsed.Condensation.RelativeHumidityPct
+	if rh == nil {
+		t.Fatal("conditions_used.condensation.relative_humidity_pct: want the derived humidity")
+	}
+	near(t, "derived relative humidity", *rh, 65.1357, 0.0002)
+	if *byDew.Sizing.CondensationMM != *byRH.Sizing.CondensationMM {
+		t.Errorf("condensation_mm %v by dew point, %v by humidity", *byDew.Sizing.CondensationMM, *byRH.Sizing.CondensationMM)
+	}
+	if !containsAny(byDew.Assumptions, "dew point given, 18 °C") {
+		t.Errorf("assumptions must state the given dew point: %q", byDew.Assumptions)
+	}
+	// A condition set takes its own dew point.
+	set := mustRun(t, strings.Replace(line, "%s", `"relative_humidity_pct":50,"conditions":{"condensation":{"dew_point_c":21}}`, 1))
+	near(t, "condensation set dew point", *set.DewPointC, 21, 1e-6)
+}
+
+func TestDewPointBadCombinations(t *testing.T) {
+	cases := []struct {
+		name, js string
+		want     []string
+	}{
+		{"both at design", `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":5,"ambient_temp_c":25,"relative_humidity_pct":60,"dew_point_c":15,"layers":[]}`,
+			[]string{"dew_point_c", "relative_humidity_pct"}},
+		{"both in a set", `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":5,"ambient_temp_c":25,"layers":[],
+			"conditions":{"condensation":{"relative_humidity_pct":60,"dew_point_c":15}},"relative_humidity_over":"steam"}`,
+			[]string{"conditions.condensation.dew_point_c", "conditions.condensation.relative_humidity_pct", "relative_humidity_over"}},
+		{"dew above the air", `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":5,"ambient_temp_c":25,"dew_point_c":26,"layers":[]}`,
+			[]string{"dew_point_c"}},
+		{"set colder than the design dew point", `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":5,"ambient_temp_c":25,"dew_point_c":15,"layers":[],
+			"conditions":{"condensation":{"ambient_temp_c":10}}}`,
+			[]string{"conditions.condensation.ambient_temp_c"}},
+	}
+	for _, c := range cases {
+		got := fieldNames(fieldErrors(t, c.js))
+		for _, f := range c.want {
+			if !slices.Contains(got, f) {
+				t.Errorf("%s: errors name %v, want %s", c.name, got, f)
+			}
+		}
+	}
+}
+
+// Below 0 °C an RH is over liquid water by default (weather data) and the answer says so.
+func TestHumidityBelowFreezingBasis(t *testing.T) {
+	line := `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":-30,"ambient_temp_c":-10,"relative_humidity_pct":80%s,
+		"layers":[{"material":"elastomeric_c534_gr1","thickness_mm":25}],"jacket":"pvc_jacket"}`
+	water := mustRun(t, strings.Replace(line, "%s", "", 1))
+	ice := mustRun(t, strings.Replace(line, "%s", `,"relative_humidity_over":"ice"`, 1))
+	// Frost point at −10 °C, 80 % over water: p_v = 0.8 × 286.45 Pa (Murphy & Koop 2005 eq. 10,
+	// supercooled water) saturates over ice near −11.4 °C (ASHRAE Fundamentals 2017 ch. 1
+	// Table 3 brackets it between −12 and −11 °C).
+	near(t, "frost point over water", *water.DewPointC, -11.43, 0.005)
+	if water.DewPointKind != "frost point" {
+		t.Errorf("dew_point_kind = %q", water.DewPointKind)
+	}
+	if !(*ice.DewPointC < *water.DewPointC) {
+		t.Errorf("over ice %v must be below over water %v", *ice.DewPointC, *water.DewPointC)
+	}
+	if !containsAny(water.Assumptions, "over liquid water") || !containsAny(ice.Assumptions, "over ice") {
+		t.Errorf("assumptions must state the basis: %q / %q", water.Assumptions, ice.Assumptions)
+	}
+}
