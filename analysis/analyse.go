@@ -422,9 +422,33 @@ func (a *analyser) freezeTimes() error {
 	}
 	o.FreezeHoursTo0C = a.num(round(h0, 3))
 	o.FreezeHoursToFreeze = a.num(round(hf, 3))
-	l.assume("freeze times for stagnant water (ASHRAE Fundamentals ch. 23 cooling form with the wall's heat capacity and the outer film; "+
-		"ISO 12241 §6.2 form for freezing %.0f %% of the water); inner film and wall resistance neglected", 100*l.crit.freezeFraction)
+	if l.crit.freezeModel == "full" {
+		l.assume("freeze times for stagnant water, freeze_model \"full\": ASHRAE Fundamentals ch. 23 cooling form with the wall's heat capacity, "+
+			"the wall and any inner film given, and the outer film; ISO 12241 §6.2 form for freezing %.0f %% of the water", 100*l.crit.freezeFraction)
+	} else {
+		l.assume("freeze times for stagnant water, freeze_model \"handbook\" (default): ASHRAE Fundamentals ch. 23 basis, insulation resistance only — "+
+			"pipe wall, its heat capacity and the inner and outer films neglected (conservative); ISO 12241 §6.2 form for freezing %.0f %% of the water; "+
+			"freeze_model \"full\" counts them", 100*l.crit.freezeFraction)
+	}
 	return nil
+}
+
+// handbookBasis reports whether freeze times and tracing take the handbook's basis
+// (insulation resistance only) for the sized layer at tMM: the default, where there is
+// insulation to take it from.
+func (a *analyser) handbookBasis(tMM float64) bool {
+	return a.l.crit.freezeModel == "handbook" && len(a.system(tMM).Layers) > 0
+}
+
+// insulationResistance is R_T of the handbook basis for the sized layer at tMM, with the
+// layers' conductivities from the solve r.
+func (a *analyser) insulationResistance(tMM float64, r calc.Result) (float64, error) {
+	sys := a.system(tMM)
+	rt, err := calc.HandbookResistancePerM(sys.PipeOD, sys.Layers, r.Layers)
+	if err != nil {
+		return 0, fmt.Errorf("insulation resistance: %w", err)
+	}
+	return rt, nil
 }
 
 // freezeHours gives hours to 0 °C and to the frozen fraction with the sized layer at tMM.
@@ -454,6 +478,15 @@ func (a *analyser) freezeHours(tMM float64) (float64, float64, error) {
 		InitialC:      ti,
 		AirC:          air.TempC,
 		Fraction:      l.crit.freezeFraction,
+	}
+	if a.handbookBasis(tMM) {
+		in.WallCapPerM = 0
+		if in.RCoolPerM, err = a.insulationResistance(tMM, rMid); err != nil {
+			return 0, 0, err
+		}
+		if in.RFreezePerM, err = a.insulationResistance(tMM, r0); err != nil {
+			return 0, 0, err
+		}
 	}
 	h0, hf, err := calc.FreezeTimes(in)
 	if err != nil {

@@ -102,6 +102,7 @@ type Criteria struct {
 	FreezeHours         *float64 `json:"freeze_hours,omitempty"`
 	FreezeBasis         string   `json:"freeze_basis,omitempty"`      // "onset" (default) | "fraction"
 	FreezeFraction      *float64 `json:"freeze_fraction,omitempty"`   // default 0.25
+	FreezeModel         string   `json:"freeze_model,omitempty"`      // "handbook" (default) | "full"
 	MaintainTempC       *float64 `json:"maintain_temp_c,omitempty"`   // default 5
 	HeatTraceFactor     *float64 `json:"heat_trace_factor,omitempty"` // default 1.2
 	EnergyCode          string   `json:"energy_code,omitempty"`       // table id, e.g. "ashrae-90.1-2016"

@@ -381,9 +381,19 @@ func (a *analyser) heatTrace() error {
 	if err != nil {
 		return err
 	}
-	o.HeatTraceWPerM = a.num(round(r.HeatFlowPerM*k.heatTraceFactor, 3))
-	l.assume("heat tracing holds %s °C at the freeze conditions with the insulation as specified, times a safety factor %s (our default 1.2)",
-		fmtRound(k.maintainC, 1), fmtNum(k.heatTraceFactor))
+	q := r.HeatFlowPerM
+	basis := "freeze_model \"full\": wall and films counted"
+	if a.handbookBasis(asSpecified) {
+		rt, err := a.insulationResistance(asSpecified, r)
+		if err != nil {
+			return err
+		}
+		q = (k.maintainC - l.freeze.air.TempC) / rt
+		basis = "handbook basis: insulation resistance only, wall and films neglected (conservative)"
+	}
+	o.HeatTraceWPerM = a.num(round(q*k.heatTraceFactor, 3))
+	l.assume("heat tracing holds %s °C at the freeze conditions with the insulation as specified (%s), times a safety factor %s (our default 1.2)",
+		fmtRound(k.maintainC, 1), basis, fmtNum(k.heatTraceFactor))
 	return nil
 }
 

@@ -88,6 +88,7 @@ type criteria struct {
 	freezeHours     *float64
 	freezeBasis     string
 	freezeFraction  float64
+	freezeModel     string // "handbook" | "full"
 	maintainC       float64
 	heatTraceFactor float64
 	energyCode      *catalog.CodeTable
@@ -909,6 +910,15 @@ func resolveCriteria(l *line, c *errs) {
 		c.add("criteria.freeze_basis", `must be "onset" or "fraction"`)
 	}
 	k.freezeFraction = orDefault(cr.FreezeFraction, 0.25)
+	k.freezeModel = cr.FreezeModel
+	switch {
+	case k.freezeModel == "":
+		k.freezeModel = "handbook"
+	case k.freezeModel != "handbook" && k.freezeModel != "full":
+		c.add("criteria.freeze_model", `must be "handbook" or "full"`)
+	case !l.shape.IsPipe():
+		c.add("criteria.freeze_model", "applies to pipes (freeze times and heat tracing)")
+	}
 	k.maintainC = orDefault(cr.MaintainTempC, 5)
 	k.heatTraceFactor = orDefault(cr.HeatTraceFactor, 1.2)
 	if k.freezeHours != nil && l.fluid != "water" {

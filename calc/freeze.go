@@ -74,3 +74,30 @@ func FreezeTimes(in FreezeInput) (hoursTo0, hoursToFraction float64, err error) 
 	freeze := in.Fraction * in.WaterMassPerM * LatentHeatFusion * in.RFreezePerM / (0 - in.AirC)
 	return cool / 3600, (cool + freeze) / 3600, nil
 }
+
+// HandbookResistancePerM returns the insulation's thermal resistance per metre of pipe,
+// K·m/W, R_T = Σ ln(D_out/D_in)/(2π·k) over the layers from the pipe's outside diameter
+// outward, each layer at the conductivity of its solved state (states from Solve, same
+// order). This is the basis of the freeze-time and heat-tracing formulas of ASHRAE
+// Handbook—Fundamentals ch. 23, which neglect the pipe wall and the inner and outer
+// films: conservative for freezing and for tracing.
+func HandbookResistancePerM(pipeOD float64, layers []Layer, states []LayerState) (float64, error) {
+	if len(layers) == 0 || len(states) != len(layers) {
+		return 0, fmt.Errorf("calc: handbook resistance needs the %d layers' solved states, got %d", len(layers), len(states))
+	}
+	if !(pipeOD > 0) {
+		return 0, fmt.Errorf("calc: pipe outside diameter %g m must be greater than 0", pipeOD)
+	}
+	var r float64
+	d := pipeOD
+	for i, ly := range layers {
+		k := states[i].K
+		if !(k > 0) || !(ly.Thickness > 0) {
+			return 0, fmt.Errorf("calc: layer %d: conductivity %g W/m·K and thickness %g m must be greater than 0", i+1, k, ly.Thickness)
+		}
+		next := d + 2*ly.Thickness
+		r += math.Log(next/d) / (2 * math.Pi * k)
+		d = next
+	}
+	return r, nil
+}

@@ -107,3 +107,26 @@ func TestFreezeTimesErrors(t *testing.T) {
 		}
 	}
 }
+
+func TestHandbookResistance(t *testing.T) {
+	// ASHRAE Fundamentals ch. 23 example: R_T = ln(D3/D2)/(2πk), D2 2.375 in, D3 5.375 in,
+	// k 0.30 Btu·in/h·ft²·°F (0.0432684 W/m·K): ln(2.2632)/(2π·0.0432684) = 3.00454 K·m/W (computed).
+	in := 0.0254
+	layers := []Layer{{Thickness: 1.5 * in}}
+	r, err := HandbookResistancePerM(2.375*in, layers, []LayerState{{K: 0.0432684}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(r-3.00454)/3.00454 > 1e-4 {
+		t.Errorf("R_T = %.5f K·m/W, want 3.00454", r)
+	}
+	// Two layers add as resistances in series (Fourier's law, common practice).
+	two, _ := HandbookResistancePerM(2.375*in, []Layer{{Thickness: 0.75 * in}, {Thickness: 0.75 * in}},
+		[]LayerState{{K: 0.0432684}, {K: 0.0432684}})
+	if math.Abs(two-r) > 1e-9 {
+		t.Errorf("split layer %.6f ≠ single layer %.6f", two, r)
+	}
+	if _, err := HandbookResistancePerM(0.06, layers, nil); err == nil {
+		t.Error("missing layer states must be an error")
+	}
+}
