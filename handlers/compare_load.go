@@ -7,37 +7,12 @@ import (
 	"strconv"
 	"strings"
 
-	"github.com/go-chi/chi/v5"
-
 	"lagwright/analysis"
 	"lagwright/results"
 	"lagwright/schedule"
 	"lagwright/store"
 	"lagwright/units"
 )
-
-// cmpPathID reads a numeric id from the route; anything else is "not found".
-func cmpPathID(r *http.Request, name, what string) (int64, error) {
-	id, err := strconv.ParseInt(chi.URLParam(r, name), 10, 64)
-	if err != nil || id <= 0 {
-		return 0, NotFound(what)
-	}
-	return id, nil
-}
-
-// cmpProject loads the project of the route.
-func (s *Server) cmpProject(r *http.Request) (store.Project, analysis.ProjectSettings, error) {
-	id, err := cmpPathID(r, "id", "project")
-	if err != nil {
-		return store.Project{}, analysis.ProjectSettings{}, err
-	}
-	p, err := s.store.Project(r.Context(), id)
-	if err != nil {
-		return p, analysis.ProjectSettings{}, err
-	}
-	set, err := results.Settings(p)
-	return p, set, err
-}
 
 // cmpLine is one stored line with its own input, for the compare screen and its action.
 type cmpLine struct {
@@ -48,19 +23,11 @@ type cmpLine struct {
 	Fit     analysis.Fittings
 }
 
-func (s *Server) cmpLoadLine(r *http.Request) (cmpLine, error) {
-	var c cmpLine
+// cmpLoadLine decodes the route's line (withLine).
+func cmpLoadLine(r *http.Request) (cmpLine, error) {
+	c := cmpLine{Line: lineOf(r)}
+	c.Project, c.Set = projectOf(r)
 	var err error
-	if c.Project, c.Set, err = s.cmpProject(r); err != nil {
-		return c, err
-	}
-	lid, err := cmpPathID(r, "line", "line")
-	if err != nil {
-		return c, err
-	}
-	if c.Line, err = s.store.Line(r.Context(), c.Project.ID, lid); err != nil {
-		return c, err
-	}
 	c.Own, c.Fit, err = results.Decode(c.Line)
 	return c, err
 }

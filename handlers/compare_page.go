@@ -110,7 +110,7 @@ func cmpWithMaterial(own analysis.Input, slug string) analysis.Input {
 
 // comparePage shows GET /projects/{id}/lines/{line}/compare[?alt=slug].
 func (s *Server) comparePage(w http.ResponseWriter, r *http.Request) {
-	c, err := s.cmpLoadLine(r)
+	c, err := cmpLoadLine(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return

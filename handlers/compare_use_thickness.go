@@ -11,7 +11,7 @@ import (
 // recomputes the line's answer and saves it if the line is still at `version` (409
 // otherwise), then sends the browser to the line page (303).
 func (s *Server) compareUseThickness(w http.ResponseWriter, r *http.Request) {
-	c, err := s.cmpLoadLine(r)
+	c, err := cmpLoadLine(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return

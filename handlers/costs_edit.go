@@ -37,11 +37,7 @@ func (s *Server) costsView(p store.Project, lib *store.Library, rows []web.CostR
 
 // costsEdit shows GET /projects/{id}/costs.
 func (s *Server) costsEdit(w http.ResponseWriter, r *http.Request) {
-	p, set, err := s.cmpProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, set := projectOf(r)
 	lib, err := s.library(r.Context())
 	if err != nil {
 		s.fail(w, r, err)

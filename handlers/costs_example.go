@@ -15,11 +15,7 @@ import (
 // or a mineral-fibre pipe section when there are no lines, replacing earlier example
 // rows and keeping the user's own (an example row never shadows a user row).
 func (s *Server) costsExample(w http.ResponseWriter, r *http.Request) {
-	p, set, err := s.cmpProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, set := projectOf(r)
 	if err := r.ParseForm(); err != nil {
 		s.fail(w, r, err)
 		return

@@ -15,11 +15,7 @@ import (
 // project's cost table, all or nothing. Problems re-render the form with the input and
 // a message beside each bad row or pasted line (422); a stale project version is 409.
 func (s *Server) costsSave(w http.ResponseWriter, r *http.Request) {
-	p, _, err := s.cmpProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
 	lib, err := s.library(r.Context())
 	if err != nil {
 		s.fail(w, r, err)

@@ -35,12 +35,8 @@ func (t *econTotal) add(y analysis.EnergyYear) {
 // service. Stored answers give the economic thicknesses; the as-specified and bare
 // energies take two heat balances per line at its economics conditions.
 func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
-	p, _, err := s.cmpProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
-	_, lines, err := s.projectLines(r.Context(), p)
+	p, _ := projectOf(r)
+	lines, err := s.projectLines(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return

@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"lagwright/analysis"
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/store/storetest"
 )
@@ -25,9 +26,7 @@ func TestViewsDoNotRecomputeFreshLines(t *testing.T) {
 	}
 	list, _ := st.Projects(ctx)
 	p := list[0].Project
-	if _, _, err := s.projectLines(ctx, p); err != nil { // every answer fresh from here on
-		t.Fatal(err)
-	}
+	freshLines(t, s, p) // every answer fresh from here on
 	lines, err := st.Lines(ctx, p.ID)
 	if err != nil || len(lines) == 0 {
 		t.Fatalf("%d lines, %v", len(lines), err)
@@ -72,4 +71,23 @@ func TestViewsDoNotRecomputeFreshLines(t *testing.T) {
 			t.Errorf("view %d of the stale line analysed %d lines, want %d", i+1, n, want)
 		}
 	}
+}
+
+// freshLines reads a project's lines with fresh answers, as the pages do.
+func freshLines(t *testing.T, s *Server, p store.Project) (analysis.ProjectSettings, []results.Line) {
+	t.Helper()
+	ctx := context.Background()
+	set, err := results.Settings(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	lib, err := s.store.Library(ctx)
+	if err != nil {
+		t.Fatal(err)
+	}
+	lines, err := s.results.Project(ctx, p, set, lib)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return set, lines
 }

@@ -16,11 +16,7 @@ import (
 // to the progress page; small ones are saved at once and the browser is sent to the
 // project (303).
 func (s *Server) importCommit(w http.ResponseWriter, r *http.Request) {
-	p, err := s.impProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
 	text, err := impFormText(r, "text")
 	if err != nil {
 		s.fail(w, r, err)

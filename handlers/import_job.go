@@ -145,11 +145,7 @@ func (s *Server) runImportJob(ctx context.Context, p store.Project, text []byte,
 // importProgress shows a background import: GET /projects/{id}/import/jobs/{job}.
 // htmx requests get the progress fragment only.
 func (s *Server) importProgress(w http.ResponseWriter, r *http.Request) {
-	p, err := s.impProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
 	id := chi.URLParam(r, "job")
 	v, ok := s.jobs.Load("import:" + id)
 	job, isJob := v.(*importJob)

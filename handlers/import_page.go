@@ -4,35 +4,15 @@ import (
 	"errors"
 	"io"
 	"net/http"
-	"strconv"
 
 	"github.com/a-h/templ"
-	"github.com/go-chi/chi/v5"
 
-	"lagwright/store"
 	"lagwright/web"
 )
 
-// impProject loads the project named in the path ({id}), or a NotFound.
-func (s *Server) impProject(r *http.Request) (store.Project, error) {
-	id, err := strconv.ParseInt(chi.URLParam(r, "id"), 10, 64)
-	if err != nil || id <= 0 {
-		return store.Project{}, NotFound("project")
-	}
-	p, err := s.store.Project(r.Context(), id)
-	if errors.Is(err, store.ErrNotFound) {
-		return store.Project{}, NotFound("project")
-	}
-	return p, err
-}
-
 // importForm shows the empty import form: GET /projects/{id}/import.
 func (s *Server) importForm(w http.ResponseWriter, r *http.Request) {
-	p, err := s.impProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
 	w.Header().Set("Cache-Control", "no-store")
 	templ.Handler(web.ImportPage(s.importView(p, "", nil))).ServeHTTP(w, r)
 }
@@ -61,11 +41,7 @@ func impFormText(r *http.Request, field string) (string, error) {
 // every problem: POST /projects/{id}/import. Nothing is saved. A list with problems
 // is answered 422, with the form and the text to fix.
 func (s *Server) importPreview(w http.ResponseWriter, r *http.Request) {
-	p, err := s.impProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
 	text, err := impFormText(r, "rows")
 	if err != nil {
 		s.fail(w, r, err)

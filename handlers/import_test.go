@@ -110,9 +110,8 @@ func TestImportAPIGoodFile(t *testing.T) {
 		t.Errorf("material by name resolved to %q", own.Layers[0].Material)
 	}
 	// The page's loader finds every result fresh: nothing to recompute.
-	_, views, err := s.projectLines(context.Background(), p)
-	if err != nil || len(views) != 4 {
-		t.Fatalf("projectLines: %v", err)
+	if _, views := freshLines(t, s, p); len(views) != 4 {
+		t.Fatalf("%d lines, want 4", len(views))
 	}
 	after := impLines(t, st, p.ID)
 	for i := range after {

@@ -6,7 +6,6 @@ import (
 	"net/http"
 
 	"github.com/a-h/templ"
-	"github.com/go-chi/chi/v5"
 
 	"lagwright/results"
 	"lagwright/store"
@@ -15,7 +14,7 @@ import (
 
 // lineDuplicate copies a line (POST) under a new tag and opens the copy.
 func (s *Server) lineDuplicate(w http.ResponseWriter, r *http.Request) {
-	c, err := s.loadLineCtx(r, true)
+	c, err := s.lineScope(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -50,7 +49,7 @@ func (s *Server) lineDuplicate(w http.ResponseWriter, r *http.Request) {
 // lineDeleteConfirm asks before deleting (the page for browsers without JavaScript;
 // with htmx the list's Delete link posts directly after a confirm dialog).
 func (s *Server) lineDeleteConfirm(w http.ResponseWriter, r *http.Request) {
-	c, err := s.loadLineCtx(r, true)
+	c, err := s.lineScope(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -62,17 +61,8 @@ func (s *Server) lineDeleteConfirm(w http.ResponseWriter, r *http.Request) {
 
 // lineDelete deletes a line (POST) and returns to the project.
 func (s *Server) lineDelete(w http.ResponseWriter, r *http.Request) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
-	id, ok := projParseID(chi.URLParam(r, "line"))
-	if !ok {
-		s.fail(w, r, NotFound("line"))
-		return
-	}
-	if err := s.store.DeleteLine(r.Context(), p.ID, id); err != nil {
+	p, _ := projectOf(r)
+	if err := s.store.DeleteLine(r.Context(), p.ID, lineOf(r).ID); err != nil {
 		if errors.Is(err, store.ErrNotFound) {
 			err = NotFound("line")
 		}

@@ -3,13 +3,10 @@ package handlers
 import (
 	"context"
 	"encoding/json"
-	"errors"
 	"fmt"
 	"net/http"
 	"slices"
 	"strings"
-
-	"github.com/go-chi/chi/v5"
 
 	"lagwright/analysis"
 	"lagwright/results"
@@ -144,12 +141,7 @@ func (s *Server) freshLine(ctx context.Context, set analysis.ProjectSettings, l 
 }
 
 func (s *Server) apiLines(w http.ResponseWriter, r *http.Request) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
-	_, views, err := s.projectLines(r.Context(), p)
+	views, err := s.projectLines(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -162,11 +154,7 @@ func (s *Server) apiLines(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) apiLineCreate(w http.ResponseWriter, r *http.Request) {
-	p, set, err := s.loadProjectSettings(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, set := projectOf(r)
 	m, err := readJSONObject(r)
 	if err != nil {
 		s.fail(w, r, err)
@@ -197,42 +185,15 @@ func (s *Server) writeLine(w http.ResponseWriter, r *http.Request, status int, s
 	writeJSON(w, status, lineOut(lv))
 }
 
-// apiLineLoad loads the project, its settings and the line of the path.
-func (s *Server) apiLineLoad(r *http.Request) (analysis.ProjectSettings, store.Line, error) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		return analysis.ProjectSettings{}, store.Line{}, err
-	}
-	set, err := results.Settings(p)
-	if err != nil {
-		return set, store.Line{}, err
-	}
-	id, ok := projParseID(chi.URLParam(r, "line"))
-	if !ok {
-		return set, store.Line{}, NotFound("line")
-	}
-	l, err := s.store.Line(r.Context(), p.ID, id)
-	if errors.Is(err, store.ErrNotFound) {
-		return set, l, NotFound("line")
-	}
-	return set, l, err
-}
-
 func (s *Server) apiLine(w http.ResponseWriter, r *http.Request) {
-	set, l, err := s.apiLineLoad(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	_, set := projectOf(r)
+	l := lineOf(r)
 	s.writeLine(w, r, http.StatusOK, set, l)
 }
 
 func (s *Server) apiLinePatch(w http.ResponseWriter, r *http.Request) {
-	set, l, err := s.apiLineLoad(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	_, set := projectOf(r)
+	l := lineOf(r)
 	patch, err := readPatch(r)
 	if err != nil {
 		s.fail(w, r, err)
@@ -264,11 +225,7 @@ func (s *Server) apiLinePatch(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) apiLineDelete(w http.ResponseWriter, r *http.Request) {
-	_, l, err := s.apiLineLoad(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	l := lineOf(r)
 	if err := s.store.DeleteLine(r.Context(), l.ProjectID, l.ID); err != nil {
 		s.fail(w, r, err)
 		return

@@ -8,7 +8,6 @@ import (
 	"strconv"
 
 	"github.com/a-h/templ"
-	"github.com/go-chi/chi/v5"
 
 	"lagwright/analysis"
 	"lagwright/catalog"
@@ -31,28 +30,12 @@ type lineCtx struct {
 	lib  *store.Library
 }
 
-func (s *Server) loadLineCtx(r *http.Request, withLine bool) (*lineCtx, error) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		return nil, err
-	}
-	set, err := results.Settings(p)
-	if err != nil {
-		return nil, err
-	}
-	c := &lineCtx{p: p, set: set, sys: units.System(p.Units)}
-	if withLine {
-		id, ok := projParseID(chi.URLParam(r, "line"))
-		if !ok {
-			return nil, NotFound("line")
-		}
-		if c.line, err = s.store.Line(r.Context(), p.ID, id); err != nil {
-			if errors.Is(err, store.ErrNotFound) {
-				return nil, NotFound("line")
-			}
-			return nil, err
-		}
-	}
+// lineScope gathers the line handlers' context: the route's project and settings,
+// its line (zero on the new-line routes) and the request's library.
+func (s *Server) lineScope(r *http.Request) (*lineCtx, error) {
+	p, set := projectOf(r)
+	c := &lineCtx{p: p, set: set, sys: units.System(p.Units), line: lineOf(r)}
+	var err error
 	if c.lib, err = s.library(r.Context()); err != nil {
 		return nil, err
 	}
@@ -142,7 +125,7 @@ func (s *Server) compute(ctx context.Context, c *lineCtx, lf lineFields) (analys
 }
 
 func (s *Server) lineNew(w http.ResponseWriter, r *http.Request) {
-	c, err := s.loadLineCtx(r, false)
+	c, err := s.lineScope(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -156,7 +139,7 @@ func (s *Server) lineNew(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) lineShow(w http.ResponseWriter, r *http.Request) {
-	c, err := s.loadLineCtx(r, true)
+	c, err := s.lineScope(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -174,8 +157,7 @@ func (s *Server) lineShow(w http.ResponseWriter, r *http.Request) {
 // lineResults computes the form as typed: the results fragment for htmx, the whole page
 // (status 422 when something is wrong) for the Calculate button.
 func (s *Server) lineResults(w http.ResponseWriter, r *http.Request) {
-	withLine := chi.URLParam(r, "line") != ""
-	c, err := s.loadLineCtx(r, withLine)
+	c, err := s.lineScope(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -224,12 +206,12 @@ func lineFieldLabel(k string) string {
 // a line. Invalid input is never saved: the form comes back with the messages beside
 // the fields (422). A stale version comes back with the typed input and a notice (409).
 func (s *Server) lineSave(w http.ResponseWriter, r *http.Request) {
-	withLine := chi.URLParam(r, "line") != ""
-	c, err := s.loadLineCtx(r, withLine)
+	c, err := s.lineScope(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
+	withLine := c.line.ID != 0
 	if err := r.ParseForm(); err != nil {
 		s.fail(w, r, err)
 		return

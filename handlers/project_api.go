@@ -178,20 +178,12 @@ func (s *Server) writeProject(w http.ResponseWriter, r *http.Request, status int
 }
 
 func (s *Server) apiProject(w http.ResponseWriter, r *http.Request) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
 	s.writeProject(w, r, http.StatusOK, p)
 }
 
 func (s *Server) apiProjectPatch(w http.ResponseWriter, r *http.Request) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
 	patch, err := readPatch(r)
 	if err != nil {
 		s.fail(w, r, err)
@@ -219,11 +211,7 @@ func (s *Server) apiProjectPatch(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) apiProjectDelete(w http.ResponseWriter, r *http.Request) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
 	if err := s.store.DeleteProject(r.Context(), p.ID); err != nil {
 		if errors.Is(err, store.ErrNotFound) {
 			err = NotFound("project")

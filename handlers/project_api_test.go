@@ -275,10 +275,7 @@ func TestDemoProject(t *testing.T) {
 	if len(list) != 1 || list[0].Name != demo.Name || list[0].LineCount < 30 || list[0].LineCount > 60 {
 		t.Fatalf("demo projects %v", list)
 	}
-	_, views, err := s.projectLines(context.Background(), list[0].Project)
-	if err != nil {
-		t.Fatal(err)
-	}
+	_, views := freshLines(t, s, list[0].Project)
 	flags := map[string][]string{}
 	for _, v := range views {
 		if len(v.Result.Errors) > 0 || v.Result.Output == nil {

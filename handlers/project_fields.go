@@ -249,9 +249,3 @@ func formSortedKeys[V any](m map[string]V) []string {
 	sort.Strings(out)
 	return out
 }
-
-// parseID reads a positive integer from a path parameter.
-func projParseID(s string) (int64, bool) {
-	id, err := strconv.ParseInt(s, 10, 64)
-	return id, err == nil && id > 0
-}

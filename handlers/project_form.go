@@ -9,11 +9,9 @@ import (
 	"strings"
 
 	"github.com/a-h/templ"
-	"github.com/go-chi/chi/v5"
 
 	"lagwright/analysis"
 	"lagwright/catalog"
-	"lagwright/results"
 	"lagwright/store"
 	"lagwright/units"
 	"lagwright/web"
@@ -340,11 +338,7 @@ func (s *Server) projectCreate(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) projectEdit(w http.ResponseWriter, r *http.Request) {
-	p, set, err := s.loadProjectSettings(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, set := projectOf(r)
 	// ?units= shows the form in the other system (the stored values converted); saving
 	// it then changes the project's display units.
 	shown := p
@@ -355,11 +349,7 @@ func (s *Server) projectEdit(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) projectUpdate(w http.ResponseWriter, r *http.Request) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
 	if err := r.ParseForm(); err != nil {
 		s.fail(w, r, err)
 		return
@@ -389,30 +379,4 @@ func (s *Server) projectUpdate(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	http.Redirect(w, r, fmt.Sprintf("/projects/%d", p.ID), http.StatusSeeOther)
-}
-
-// loadProject reads the {id} path parameter and loads the project (404 when missing).
-// loadProjectSettings loads the project named in the URL with its decoded settings.
-func (s *Server) loadProjectSettings(r *http.Request) (store.Project, analysis.ProjectSettings, error) {
-	p, err := s.loadProject(r)
-	if err != nil {
-		return p, analysis.ProjectSettings{}, err
-	}
-	set, err := results.Settings(p)
-	return p, set, err
-}
-
-func (s *Server) loadProject(r *http.Request) (store.Project, error) {
-	id, ok := projParseID(chi.URLParam(r, "id"))
-	if !ok {
-		return store.Project{}, NotFound("project")
-	}
-	p, err := s.store.Project(r.Context(), id)
-	if err != nil {
-		if classify(err).Code == CodeNotFound {
-			return p, NotFound("project")
-		}
-		return p, err
-	}
-	return p, nil
 }

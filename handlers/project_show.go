@@ -293,11 +293,7 @@ func tagDigits(s string) string {
 // the sort and the method version), stored only from a view whose lines were all
 // fresh; a hit reads neither the lines nor the library and renders only the head.
 func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
-	p, set, err := s.loadProjectSettings(r)
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, set := projectOf(r)
 	// Read before the lines: a write that lands in between makes the table newer
 	// than its key, which then no longer matches the database and is never served.
 	fp, err := s.store.ListFingerprint(r.Context(), p.ID)

@@ -2,15 +2,20 @@ package handlers
 
 import "github.com/go-chi/chi/v5"
 
-// schedulePages mounts the schedule routes: the printable schedule page (a draft from
-// the current lines, or an issued revision with ?rev=N), its CSV, XLSX and PDF exports
-// (also with ?rev=N), issuing a revision, and the calculation sheet of one line.
+// schedulePages mounts, under /projects/{id}, the printable schedule page (a draft
+// from the current lines, or an issued revision with ?rev=N), its CSV, XLSX and PDF
+// exports (also with ?rev=N) and issuing a revision.
 func (s *Server) schedulePages(r chi.Router) {
-	r.Get("/projects/{id}/schedule", s.schedulePage)
-	r.Get("/projects/{id}/schedule.csv", s.scheduleExport(exportCSV))
-	r.Get("/projects/{id}/schedule.xlsx", s.scheduleExport(exportXLSX))
-	r.Get("/projects/{id}/schedule.pdf", s.scheduleExport(exportPDF))
-	r.Post("/projects/{id}/schedule/revisions", s.scheduleIssue)
-	r.Get("/projects/{id}/lines/{line}/sheet", s.sheetPage)
-	r.Get("/projects/{id}/lines/{line}/sheet.pdf", s.sheetPDF)
+	r.Get("/schedule", s.schedulePage)
+	r.Get("/schedule.csv", s.scheduleExport(exportCSV))
+	r.Get("/schedule.xlsx", s.scheduleExport(exportXLSX))
+	r.Get("/schedule.pdf", s.scheduleExport(exportPDF))
+	r.Post("/schedule/revisions", s.scheduleIssue)
+}
+
+// scheduleLinePages mounts, under /projects/{id}/lines/{line}, the line's
+// calculation sheet and its PDF.
+func (s *Server) scheduleLinePages(r chi.Router) {
+	r.Get("/sheet", s.sheetPage)
+	r.Get("/sheet.pdf", s.sheetPDF)
 }

@@ -1,71 +1,34 @@
 package handlers
 
 import (
-	"context"
 	"encoding/json"
 	"fmt"
 	"net/http"
 	"strconv"
 	"time"
 
-	"github.com/go-chi/chi/v5"
-
 	"lagwright/analysis"
-	"lagwright/results"
 	"lagwright/schedule"
 	"lagwright/store"
 	"lagwright/units"
 )
-
-// pathID reads a positive integer path parameter; anything else is "no such what".
-func pathID(r *http.Request, name, what string) (int64, error) {
-	id, err := strconv.ParseInt(chi.URLParam(r, name), 10, 64)
-	if err != nil || id <= 0 {
-		return 0, NotFound(what)
-	}
-	return id, nil
-}
-
-// scheduleInput loads a project and its lines with fresh, whole answers (less the
-// economics table) for the calculation sheet (results.ScheduleLines), and the library
-// that names their materials and jackets.
-func (s *Server) scheduleInput(ctx context.Context, projectID int64) (schedule.Project, []schedule.Line, *store.Library, error) {
-	p, set, lib, err := s.scheduleProject(ctx, projectID)
-	if err != nil {
-		return schedule.Project{}, nil, nil, err
-	}
-	lines, err := s.results.ScheduleLines(ctx, p, set, lib)
-	return scheduleHead(p, set), lines, lib, err
-}
-
-// scheduleProject loads the project with its settings and the request's library.
-func (s *Server) scheduleProject(ctx context.Context, projectID int64) (store.Project, analysis.ProjectSettings, *store.Library, error) {
-	p, err := s.store.Project(ctx, projectID)
-	if err != nil {
-		return p, analysis.ProjectSettings{}, nil, err
-	}
-	set, err := results.Settings(p)
-	if err != nil {
-		return p, set, nil, err
-	}
-	lib, err := s.library(ctx)
-	return p, set, lib, err
-}
 
 // scheduleHead is the project as the schedule names it.
 func scheduleHead(p store.Project, set analysis.ProjectSettings) schedule.Project {
 	return schedule.Project{ID: p.ID, Name: p.Name, Client: p.Client, Site: p.Site, Units: units.System(p.Units), Settings: set}
 }
 
-// draftSchedule is the schedule of the current lines, not issued. The lines are
-// streamed (results.StreamSchedule): a big project's answers are never held at once.
-func (s *Server) draftSchedule(ctx context.Context, projectID int64) (schedule.Schedule, error) {
-	p, set, lib, err := s.scheduleProject(ctx, projectID)
+// draftSchedule is the schedule of the route's project's current lines, not issued.
+// The lines are streamed (results.StreamSchedule): a big project's answers are never
+// held at once.
+func (s *Server) draftSchedule(r *http.Request) (schedule.Schedule, error) {
+	p, set := projectOf(r)
+	lib, err := s.library(r.Context())
 	if err != nil {
 		return schedule.Schedule{}, err
 	}
 	b := schedule.NewBuilder(scheduleHead(p, set), lib, 0, time.Now())
-	if err := s.results.StreamSchedule(ctx, p.ID, set, lib, b.Add); err != nil {
+	if err := s.results.StreamSchedule(r.Context(), p.ID, set, lib, b.Add); err != nil {
 		return schedule.Schedule{}, err
 	}
 	return b.Schedule(), nil
@@ -99,27 +62,22 @@ func revParam(r *http.Request) (int, error) {
 	return n, nil
 }
 
-// requestedSchedule is the draft, or the issued revision that ?rev=N names.
+// requestedSchedule is the draft, or the issued revision that ?rev=N names, of the
+// route's project.
 func (s *Server) requestedSchedule(r *http.Request) (projectID int64, sc schedule.Schedule, err error) {
-	projectID, err = pathID(r, "id", "project")
-	if err != nil {
-		return 0, sc, err
-	}
+	p, _ := projectOf(r)
 	rev, err := revParam(r)
 	if err != nil {
 		return 0, sc, err
 	}
 	if rev == 0 {
-		sc, err = s.draftSchedule(r.Context(), projectID)
-		return projectID, sc, err
+		sc, err = s.draftSchedule(r)
+		return p.ID, sc, err
 	}
-	if _, err := s.store.Project(r.Context(), projectID); err != nil {
-		return 0, sc, err
-	}
-	stored, err := s.store.Revision(r.Context(), projectID, rev)
+	stored, err := s.store.Revision(r.Context(), p.ID, rev)
 	if err != nil {
 		return 0, sc, err
 	}
 	sc, err = revisionSchedule(stored)
-	return projectID, sc, err
+	return p.ID, sc, err
 }

@@ -16,11 +16,8 @@ const maxRevisionNote = 500
 // schedule of the current lines and stores its rows, totals and header as a snapshot,
 // then sends the browser to the issued revision (303; JSON clients get 201 with it).
 func (s *Server) scheduleIssue(w http.ResponseWriter, r *http.Request) {
-	id, err := pathID(r, "id", "project")
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
+	p, _ := projectOf(r)
+	id := p.ID
 	if err := r.ParseForm(); err != nil {
 		s.fail(w, r, Invalid(FieldError{Field: "", Message: "the form could not be read"}))
 		return
@@ -30,7 +27,7 @@ func (s *Server) scheduleIssue(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, Invalid(FieldError{Field: "note", Message: fmt.Sprintf("at most %d characters", maxRevisionNote)}))
 		return
 	}
-	sc, err := s.draftSchedule(r.Context(), id)
+	sc, err := s.draftSchedule(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return

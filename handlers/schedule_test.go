@@ -12,6 +12,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/demo"
+	"lagwright/results"
 	"lagwright/schedule"
 	"lagwright/store"
 	"lagwright/store/storetest"
@@ -184,10 +185,16 @@ func TestScheduleExportStreamed(t *testing.T) {
 		t.Fatalf("first export = %d", first.Code)
 	}
 	// The same schedule from the whole stored answers (the calculation sheet's path).
-	sp, lines, lib, err := s.scheduleInput(ctx, p.ID)
+	set, views := freshLines(t, s, p)
+	lib, err := st.Library(ctx)
 	if err != nil {
 		t.Fatal(err)
 	}
+	lines := make([]schedule.Line, len(views))
+	for i, v := range views {
+		lines[i] = results.ScheduleLine(v)
+	}
+	sp := scheduleHead(p, set)
 	var want strings.Builder
 	if err := schedule.WriteCSV(&want, schedule.Build(sp, lines, lib, 0, time.Now())); err != nil {
 		t.Fatal(err)

@@ -103,20 +103,42 @@ func (s *Server) router() *chi.Mux {
 	return r
 }
 
-// mountPages mounts the screens, one resource per file (routes_*.go).
+// mountPages mounts the screens as a tree. A route under /projects/{id} finds its
+// project (with settings) in the request context, loaded once by withProject (404
+// early); one under /projects/{id}/lines/{line} its line too (withLine). Each area
+// adds its routes relative to the node they hang on, in routes_<area>.go.
 func (s *Server) mountPages(r chi.Router) {
-	s.projectPages(r)
+	s.projectListPages(r)
 	s.materialPages(r)
-	s.schedulePages(r)
-	s.importPages(r)
-	s.comparePages(r)
+	r.Route("/projects/{id}", func(r chi.Router) {
+		r.Use(s.withProject)
+		s.projectPages(r)
+		s.schedulePages(r)
+		s.importPages(r)
+		s.comparePages(r)
+		r.Route("/lines/{line}", func(r chi.Router) {
+			r.Use(s.withLine)
+			s.linePages(r)
+			s.scheduleLinePages(r)
+			s.compareLinePages(r)
+		})
+	})
 }
 
-// mountAPI mounts the JSON API under /api/v1. Errors from API routes are answered
-// as JSON by s.fail.
+// mountAPI mounts the JSON API under /api/v1, with the same tree as the pages.
+// Errors from API routes are answered as JSON by s.fail.
 func (s *Server) mountAPI(r chi.Router) {
 	r.Post("/calc", s.apiCalc)
-	s.projectAPI(r)
+	s.projectListAPI(r)
 	s.materialAPI(r)
 	s.importAPI(r)
+	r.Route("/projects/{id}", func(r chi.Router) {
+		r.Use(s.withProject)
+		s.projectAPI(r)
+		s.importProjectAPI(r)
+		r.Route("/lines/{line}", func(r chi.Router) {
+			r.Use(s.withLine)
+			s.lineAPI(r)
+		})
+	})
 }

@@ -8,35 +8,28 @@ import (
 
 	"github.com/a-h/templ"
 
+	"lagwright/results"
 	"lagwright/schedule"
 	"lagwright/web"
 )
 
-// lineSheet builds the calculation sheet of the line named in the path, from its fresh
-// answer.
+// lineSheet builds the calculation sheet of the route's line from its fresh answer.
 func (s *Server) lineSheet(r *http.Request) (projectID int64, sh schedule.Sheet, err error) {
-	projectID, err = pathID(r, "id", "project")
+	p, set := projectOf(r)
+	lib, err := s.library(r.Context())
 	if err != nil {
 		return 0, sh, err
 	}
-	lineID, err := pathID(r, "line", "line")
+	lv, err := s.results.One(r.Context(), set, lib, lineOf(r))
 	if err != nil {
 		return 0, sh, err
 	}
-	p, lines, lib, err := s.scheduleInput(r.Context(), projectID)
-	if err != nil {
-		return 0, sh, err
-	}
-	for _, l := range lines {
-		if l.ID == lineID {
-			sh := schedule.BuildSheet(p, l, lib, time.Now())
-			// The analysis writes in SI; a US project's sheet adds the US values.
-			sh.Assumptions = withUSValuesAll(p.Units, sh.Assumptions)
-			sh.Warnings = withUSValuesAll(p.Units, sh.Warnings)
-			return projectID, sh, nil
-		}
-	}
-	return 0, sh, NotFound("line")
+	sp := scheduleHead(p, set)
+	sh = schedule.BuildSheet(sp, results.ScheduleLine(lv), lib, time.Now())
+	// The analysis writes in SI; a US project's sheet adds the US values.
+	sh.Assumptions = withUSValuesAll(sp.Units, sh.Assumptions)
+	sh.Warnings = withUSValuesAll(sp.Units, sh.Warnings)
+	return p.ID, sh, nil
 }
 
 // sheetPage shows a line's printable calculation sheet.

@@ -2,115 +2,23 @@ package results
 
 import (
 	"context"
-	"encoding/json"
 	"runtime"
 	"sync"
-	"sync/atomic"
 
 	"lagwright/analysis"
 	"lagwright/schedule"
 	"lagwright/store"
 )
 
-// ScheduleLines loads a project's lines with fresh, whole answers (less the
-// economics table) as the plain data package schedule takes: for the calculation
-// sheet, which shows the assumptions and warnings too. The schedule and its exports
-// stream instead (StreamSchedule).
-//
-// It reads the lines raw and decodes them on every core; when any line's stored
-// answer is stale, it falls back to Project, which recomputes and saves the stale ones.
-func (r *Results) ScheduleLines(ctx context.Context, p store.Project, set analysis.ProjectSettings, lib *store.Library) ([]schedule.Line, error) {
-	raw, err := r.store.ScheduleLines(ctx, p.ID)
-	if err != nil {
-		return nil, err
-	}
-	lines, fresh, err := decodeScheduleLines(set, raw, lib)
-	if err != nil || fresh {
-		return lines, err
-	}
-	views, err := r.Project(ctx, p, set, lib)
-	if err != nil {
-		return nil, err
-	}
-	lines = make([]schedule.Line, len(views))
-	for i, v := range views {
-		lines[i] = ScheduleLine(v)
-	}
-	return lines, nil
-}
-
 // ScheduleLine is a line as the schedule takes it.
 func ScheduleLine(v Line) schedule.Line {
 	l := schedule.Line{
 		ID: v.Line.ID, Tag: v.Line.Tag, Service: v.Line.Service, Location: v.Line.Location, Exposure: v.Line.Exposure,
-		Notes: v.Line.Notes, Input: v.Effective, Fittings: v.Fittings, Output: v.Result.Output,
+		Notes: v.Line.Notes, Input: v.Effective, Fittings: v.Fittings,
 	}
-	for _, e := range v.Result.Errors {
-		l.Errors = append(l.Errors, e.Field+": "+e.Message)
-	}
+	setAnswer(&l, v.Result)
 	return l
 }
-
-// decodeScheduleLines decodes raw lines on every core. fresh is false as soon as one
-// line's stored answer does not match its effective input (then lines is incomplete).
-func decodeScheduleLines(set analysis.ProjectSettings, raw []store.ScheduleLine, lib *store.Library) ([]schedule.Line, bool, error) {
-	lines := make([]schedule.Line, len(raw))
-	workers := max(1, min(runtime.GOMAXPROCS(0), len(raw)/256))
-	var stale atomic.Bool
-	errs := make([]error, workers)
-	var wg sync.WaitGroup
-	for w := range workers {
-		wg.Go(func() {
-			for i := w; i < len(raw) && !stale.Load(); i += workers {
-				rl := raw[i]
-				own, fit, err := decode(rl.ID, rl.Input, rl.Fittings)
-				if err != nil {
-					errs[w] = err
-					return
-				}
-				eff := set.Effective(rl.Location, own, fit)
-				var res slimStored
-				if len(rl.Result) == 0 || Hash(lib, eff) != rl.ResultHash || json.Unmarshal(rl.Result, &res) != nil {
-					stale.Store(true)
-					return
-				}
-				l := schedule.Line{ID: rl.ID, Tag: rl.Tag, Service: rl.Service, Location: rl.Location, Exposure: rl.Exposure,
-					Notes: rl.Notes, Input: eff, Fittings: fit}
-				if res.Output != nil {
-					l.Output = res.Output.Output
-				}
-				for _, e := range res.Errors {
-					l.Errors = append(l.Errors, e.Field+": "+e.Message)
-				}
-				lines[i] = l
-			}
-		})
-	}
-	wg.Wait()
-	for _, err := range errs {
-		if err != nil {
-			return nil, false, err
-		}
-	}
-	return lines, !stale.Load(), nil
-}
-
-// slimStored decodes a stored answer without its economics table, which neither the
-// schedule nor the calculation sheet shows: less to allocate on big projects.
-type slimStored struct {
-	Output *slimOutput          `json:"output"`
-	Errors analysis.FieldErrors `json:"errors"`
-}
-
-type slimOutput struct {
-	*analysis.Output
-	Economics skipJSON `json:"economics"` // shadows Output.Economics
-}
-
-// skipJSON accepts any JSON value and keeps nothing.
-type skipJSON struct{}
-
-func (*skipJSON) UnmarshalJSON([]byte) error { return nil }
 
 // scheduleBatch is how many lines travel together through StreamSchedule.
 const scheduleBatch = 256
