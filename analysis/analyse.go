@@ -354,6 +354,9 @@ const runSegments = 10
 // alongRun gives the outlet temperature (with flow) or the condensate load (steam).
 func (a *analyser) alongRun(main calc.Result) error {
 	l, o := a.l, a.out
+	if l.superheatK > 0 {
+		return a.superheatedRun()
+	}
 	if l.steamAbsPa > 0 && l.fluid == "steam" {
 		o.SteamSatTempC = a.num(round(l.opC, 3))
 		hfg, err := calc.SteamLatentHeat(l.steamAbsPa)
@@ -381,8 +384,55 @@ func (a *analyser) alongRun(main calc.Result) error {
 	return nil
 }
 
+// superheatedRun gives the superheat, and with flow and length the steam's cooling along
+// the run and the condensate after the point where it reaches saturation.
+func (a *analyser) superheatedRun() error {
+	l, o := a.l, a.out
+	o.SteamSatTempC = a.num(round(l.steamSatC, 3))
+	o.SteamSuperheatK = a.num(round(l.superheatK, 3))
+	if l.in.Flow == nil || l.lengthM == 0 {
+		l.warn("superheated steam: give flow.mass_flow_kg_s and length_m for its cooling along the run and any condensate")
+		return nil
+	}
+	run, err := a.steamRun(asSpecified)
+	if err != nil {
+		return err
+	}
+	o.OutletTempC = a.num(round(run.OutletC, 4))
+	o.TempChangeK = a.num(round(l.opC-run.OutletC, 4))
+	o.CondensateKgPerH = a.num(round(run.CondensateKgPerH, 4))
+	if run.SaturatedAtM >= 0 {
+		o.SteamSaturatedAtM = a.num(round(run.SaturatedAtM, 2))
+		l.warn("superheated steam reaches saturation %s m along the run (of %s m with fittings) and condenses after it: provide drainage (steam traps) downstream",
+			fmtRound(run.SaturatedAtM, 1), fmtRound(l.equivLengthM, 1))
+	}
+	l.assume("superheated steam cooled along the length plus fittings (%.1f m) in %d segments by its enthalpy (IAPWS-IF97 region 2), "+
+		"at the design conditions; condensate only after it reaches saturation", l.equivLengthM, steamSegments)
+	return nil
+}
+
+// steamSegments is the number of segments a superheated-steam run is marched in.
+const steamSegments = 20
+
+func (a *analyser) steamRun(tMM float64) (calc.SteamRun, error) {
+	l := a.l
+	q := func(fluidC float64) (float64, error) {
+		r, err := a.solve(tMM, fluidC, l.design.air)
+		return r.HeatFlowPerM, err
+	}
+	run, err := calc.SuperheatedRun(l.steamAbsPa, l.opC, l.equivLengthM, *l.in.Flow.MassFlowKgS, q, steamSegments)
+	if err != nil {
+		return run, fmt.Errorf("superheated steam along the run: %w", err)
+	}
+	return run, nil
+}
+
 func (a *analyser) outlet(tMM float64) (float64, error) {
 	l := a.l
+	if l.superheatK > 0 {
+		run, err := a.steamRun(tMM)
+		return run.OutletC, err
+	}
 	q := func(fluidC float64) (float64, error) {
 		r, err := a.solve(tMM, fluidC, l.design.air)
 		return r.HeatFlowPerM, err

@@ -35,6 +35,8 @@ type Output struct {
 	TempChangeK         *float64 `json:"temp_change_k"`
 	CondensateKgPerH    *float64 `json:"condensate_kg_per_h"`
 	SteamSatTempC       *float64 `json:"steam_saturation_temp_c"`
+	SteamSuperheatK     *float64 `json:"steam_superheat_k"`
+	SteamSaturatedAtM   *float64 `json:"steam_saturated_at_m"`
 	FreezeHoursTo0C     *float64 `json:"freeze_hours_to_0c"`
 	FreezeHoursToFreeze *float64 `json:"freeze_hours_to_freeze"`
 	HeatTraceWPerM      *float64 `json:"heat_trace_w_per_m"`

@@ -1,6 +1,7 @@
 package analysis
 
 import (
+	"math"
 	"slices"
 	"strings"
 	"testing"
@@ -135,5 +136,63 @@ func TestHumidityBelowFreezingBasis(t *testing.T) {
 	}
 	if !containsAny(water.Assumptions, "over liquid water") || !containsAny(ice.Assumptions, "over ice") {
 		t.Errorf("assumptions must state the basis: %q / %q", water.Assumptions, ice.Assumptions)
+	}
+}
+
+// Superheated steam: the pressure and a temperature above saturation. The steam cools
+// along the run and condenses only after it reaches saturation.
+func TestSuperheatedSteam(t *testing.T) {
+	base := `{"geometry":"pipe","pipe_size":"NPS 4","steam_gauge_pressure_kpa":1000,"operating_temp_c":250,"ambient_temp_c":10,
+		"length_m":100,%s"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"aluminium_new"}`
+	out := mustRun(t, strings.Replace(base, "%s", `"flow":{"mass_flow_kg_s":0.05},`, 1))
+	// Saturation at 1101.3 kPa abs: 184.1 °C (steam tables, from memory), so 65.9 K of superheat.
+	near(t, "steam_saturation_temp_c", *out.SteamSatTempC, 184.1, 0.001)
+	near(t, "steam_superheat_k", *out.SteamSuperheatK, 250-184.12, 0.002)
+	if out.OperatingTempC != 250 {
+		t.Errorf("operating_temp_c = %v, want 250", out.OperatingTempC)
+	}
+	if out.SteamSaturatedAtM == nil || out.CondensateKgPerH == nil {
+		t.Fatalf("saturated at %v, condensate %v", out.SteamSaturatedAtM, out.CondensateKgPerH)
+	}
+	// Energy balance with steam-table enthalpies (Cengel Table A-6, from memory, interpolated
+	// to 1.1013 MPa): h(250 °C) ≈ 2939.2 kJ/kg, h_g ≈ 2780.5 kJ/kg, so the steam gives up
+	// about 158.7 kJ/kg before it condenses. The heat loss per metre falls as it cools, so the
+	// point of saturation lies between ṁΔh/q'(250 °C) and ṁΔh/q'(184 °C).
+	heat := 0.05 * 158.7e3
+	qHot := *out.HeatFlowWPerM
+	cold := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 4","steam_gauge_pressure_kpa":1000,"ambient_temp_c":10,
+		"length_m":100,"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"aluminium_new"}`)
+	qSat := *cold.HeatFlowWPerM
+	x := *out.SteamSaturatedAtM
+	if !(x > heat/qHot*0.99 && x < heat/qSat*1.01) {
+		t.Errorf("saturated at %.2f m, want between %.2f and %.2f m", x, heat/qHot, heat/qSat)
+	}
+	// After it, the rest of the run condenses as saturated steam does: q'(T_s)·(L − x)/h_fg.
+	near(t, "condensate after saturation", *out.CondensateKgPerH, *cold.CondensateKgPerH*(100-x)/100, 0.001)
+	if math.Abs(*out.OutletTempC-*out.SteamSatTempC) > 0.001 {
+		t.Errorf("outlet %v, want the saturation temperature %v", *out.OutletTempC, *out.SteamSatTempC)
+	}
+
+	// Without flow: the superheat and heat loss, no condensate, and a warning asking for flow.
+	noFlow := mustRun(t, strings.Replace(base, "%s", "", 1))
+	if noFlow.CondensateKgPerH != nil || !containsAny(noFlow.Warnings, "give flow.mass_flow_kg_s") {
+		t.Errorf("no flow: condensate %v, warnings %q", noFlow.CondensateKgPerH, noFlow.Warnings)
+	}
+	// A large flow stays superheated: no condensate, and it cools by about q'·L/(ṁ·c_p) with
+	// c_p ≈ 2.2 kJ/kg·K for steam near 1.1 MPa and 250 °C (steam tables, from memory).
+	big := mustRun(t, strings.Replace(base, "%s", `"flow":{"mass_flow_kg_s":5},`, 1))
+	if big.SteamSaturatedAtM != nil || *big.CondensateKgPerH != 0 {
+		t.Errorf("5 kg/s: saturated at %v, condensate %v", big.SteamSaturatedAtM, *big.CondensateKgPerH)
+	}
+	near(t, "5 kg/s temperature drop", 250-*big.OutletTempC, qHot*100/(5*2.2e3), 0.1)
+
+	// Bad combinations: a temperature below saturation, a specific heat for superheated steam.
+	fe := fieldNames(fieldErrors(t, `{"geometry":"pipe","pipe_size":"NPS 4","steam_gauge_pressure_kpa":1000,"operating_temp_c":150,"ambient_temp_c":10,"layers":[]}`))
+	if !slices.Contains(fe, "operating_temp_c") {
+		t.Errorf("below saturation: errors %v", fe)
+	}
+	fe = fieldNames(fieldErrors(t, strings.Replace(base, "%s", `"flow":{"mass_flow_kg_s":0.05,"cp_j_kgk":2100},`, 1)))
+	if !slices.Contains(fe, "flow.cp_j_kgk") {
+		t.Errorf("cp for superheated steam: errors %v", fe)
 	}
 }

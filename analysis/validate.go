@@ -62,7 +62,9 @@ type line struct {
 
 	fluid        string
 	opC          float64
-	steamAbsPa   float64 // > 0 for saturated steam
+	steamAbsPa   float64 // > 0 for steam at a known pressure
+	steamSatC    float64 // saturation temperature at steamAbsPa
+	superheatK   float64 // > 0: superheated steam, operating this far above saturation
 	cpJkgK       float64
 	lengthM      float64 // 0 = not given
 	equivLengthM float64 // length + fittings
@@ -458,11 +460,24 @@ func resolveFluid(l *line, c *errs) {
 			return
 		}
 		l.steamAbsPa = abs
+		l.steamSatC = t
 		l.opC = t
-		l.assume("saturated steam at %s kPa gauge (%s kPa absolute at sea-level atmosphere 101.325 kPa): %.1f °C (IAPWS-IF97)",
-			fmtRound(p, 1), fmtRound(p+101.325, 1), t)
-		if in.OperatingTempC != nil && math.Abs(*in.OperatingTempC-t) > 0.5 {
-			c.add("operating_temp_c", "does not match the saturation temperature %.1f °C at the given steam pressure; give one of the two", t)
+		switch op := in.OperatingTempC; {
+		case op == nil || math.Abs(*op-t) <= 0.5:
+			l.assume("saturated steam at %s kPa gauge (%s kPa absolute at sea-level atmosphere 101.325 kPa): %.1f °C (IAPWS-IF97)",
+				fmtRound(p, 1), fmtRound(p+101.325, 1), t)
+		case *op < t:
+			c.add("operating_temp_c", "is below the saturation temperature %.1f °C at the given steam pressure: steam there is wet or condensed; "+
+				"give the pressure alone for saturated steam, or a temperature above %.1f °C for superheated steam", t, t)
+		default:
+			if _, _, err := calc.SuperheatedSteam(abs, *op); err != nil {
+				c.add("operating_temp_c", "superheated steam at this pressure: %s", strings.TrimPrefix(err.Error(), "calc: "))
+				return
+			}
+			l.opC = *op
+			l.superheatK = *op - t
+			l.assume("superheated steam at %s kPa gauge (%s kPa absolute at sea-level atmosphere 101.325 kPa) and %s °C: %.1f K above saturation at %.1f °C; "+
+				"properties by IAPWS-IF97 region 2, pressure drop along the run neglected", fmtRound(p, 1), fmtRound(p+101.325, 1), fmtRound(*op, 1), l.superheatK, t)
 		}
 		return
 	}
@@ -479,7 +494,7 @@ func resolveFluid(l *line, c *errs) {
 	if l.fluid == "steam" && l.opC >= 0.01 && l.opC <= 373 {
 		p, err := calc.SteamSaturationPressure(l.opC)
 		if err == nil {
-			l.steamAbsPa = p
+			l.steamAbsPa, l.steamSatC = p, l.opC
 			l.assume("steam taken as saturated at %.1f °C (%.0f kPa absolute, IAPWS-IF97)", l.opC, p/1000)
 		}
 	}
@@ -848,6 +863,9 @@ func resolveRun(l *line, c *errs) {
 			positiveCheck(c, "flow.mass_flow_kg_s", in.Flow.MassFlowKgS, 10000, "kg/s")
 		}
 		rangeCheck(c, "flow.cp_j_kgk", in.Flow.CpJkgK, 100, 20000, "J/kg·K")
+		if in.Flow.CpJkgK != nil && l.superheatK > 0 {
+			c.add("flow.cp_j_kgk", "superheated steam takes its specific heat from IAPWS-IF97 region 2 along the run; leave it out")
+		}
 		if in.Flow.CpJkgK != nil {
 			l.cpJkgK = *in.Flow.CpJkgK
 		} else if cp, ok := defaultCp[l.fluid]; ok {
@@ -856,7 +874,7 @@ func resolveRun(l *line, c *errs) {
 		} else if l.fluid != "steam" {
 			c.add("flow.cp_j_kgk", "is required for fluid %q", l.fluid)
 		}
-		if l.fluid == "steam" && l.steamAbsPa > 0 {
+		if l.fluid == "steam" && l.steamAbsPa > 0 && l.superheatK == 0 {
 			l.assume("saturated steam does not cool along the run: it condenses (flow is not used)")
 		}
 		if in.LengthM == nil {
@@ -899,7 +917,7 @@ func resolveCriteria(l *line, c *errs) {
 	if k.maxTempChange != nil && (l.in.Flow == nil || l.in.LengthM == nil) {
 		c.add("criteria.max_temp_change_k", "needs flow and length_m")
 	}
-	if k.maxTempChange != nil && l.fluid == "steam" {
+	if k.maxTempChange != nil && l.fluid == "steam" && l.superheatK == 0 {
 		c.add("criteria.max_temp_change_k", "saturated steam condenses instead of cooling; use max_heat_flow_w_per_m")
 	}
 	k.freezeHours = cr.FreezeHours

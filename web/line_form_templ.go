@@ -371,7 +371,7 @@ func LinePage(v LineFormView) templ.Component {
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = entryText(v.EntryForm, "steam_gauge_pressure_kpa", "Steam pressure (gauge)", v.Units["steam_gauge_pressure_kpa"], "Saturated steam: instead of a temperature.").Render(ctx, templ_7745c5c3_Buffer)
+			templ_7745c5c3_Err = entryText(v.EntryForm, "steam_gauge_pressure_kpa", "Steam pressure (gauge)", v.Units["steam_gauge_pressure_kpa"], "Alone: saturated steam. With an operating temperature above saturation: superheated steam.").Render(ctx, templ_7745c5c3_Buffer)
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
