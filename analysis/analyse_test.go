@@ -90,7 +90,7 @@ func TestValidationMessages(t *testing.T) {
 		{"k points order", `{"geometry":"flat","operating_temp_c":50,"ambient_temp_c":20,"surface_emittance":0.9,"layers":[{"k_points":[[50,0.04],[10,0.03]],"thickness_mm":25}]}`, "layers[0].k_points[1][0]", "strictly increasing"},
 		{"duct size", `{"geometry":"duct","duct_width_mm":600,"operating_temp_c":12,"ambient_temp_c":28,"layers":[]}`, "duct_height_mm", "required"},
 		{"rh range", `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":6,"ambient_temp_c":30,"relative_humidity_pct":140,"layers":[]}`, "relative_humidity_pct", "between"},
-		{"economics price", `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":80,"ambient_temp_c":20,"surface_emittance":0.9,"layers":[{"k_w_mk":0.04,"thickness_mm":25}],"economics":{"hours_per_year":8000}}`, "economics.energy_price_per_kwh", "required"},
+		{"economics price", `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":80,"ambient_temp_c":20,"surface_emittance":0.9,"layers":[{"k_w_mk":0.04,"thickness_mm":25}],"economics":{"heating":{"hours_per_year":8000}}}`, "economics.heating.price_per_kwh", "required"},
 		{"too many layers", `{"geometry":"flat","operating_temp_c":50,"ambient_temp_c":20,"surface_emittance":0.9,"layers":[` + strings.Repeat(`{"k_w_mk":0.04,"thickness_mm":5},`, 11) + `{"k_w_mk":0.04,"thickness_mm":5}]}`, "layers", "at most"},
 		{"steam vs water", `{"geometry":"pipe","pipe_size":"NPS 2","fluid":"water","steam_gauge_pressure_kpa":500,"ambient_temp_c":20,"layers":[]}`, "steam_gauge_pressure_kpa", "steam"},
 	}

@@ -63,6 +63,17 @@ func join(prefix, key string) string {
 	return prefix + "." + key
 }
 
+// movedKeys names where a key of an older form of the JSON went (by struct and key), so
+// an old request is told what to write instead of "unknown key". Stored data was
+// migrated (migration 0020).
+var movedKeys = map[string]string{
+	"Economics.energy_price_per_kwh": "heating.price_per_kwh and/or cooling.price_per_kwh",
+	"Economics.efficiency":           "heating.efficiency",
+	"Economics.cop":                  "cooling.cop",
+	"Economics.hours_per_year":       "heating.hours_per_year and/or cooling.hours_per_year",
+	"Economics.co2_kg_per_kwh":       "heating.co2_kg_per_kwh and/or cooling.co2_kg_per_kwh",
+}
+
 // fill sets struct fields from a decoded JSON object.
 func fill(v reflect.Value, obj map[string]any, prefix string, c *errs) {
 	fields := map[string]int{}
@@ -76,6 +87,10 @@ func fill(v reflect.Value, obj map[string]any, prefix string, c *errs) {
 	for key, val := range obj {
 		i, ok := fields[key]
 		if !ok {
+			if to, moved := movedKeys[t.Name()+"."+key]; moved {
+				c.add(join(prefix, key), "%s", "moved: give "+to+" (see docs/calc-json.md)")
+				continue
+			}
 			c.add(join(prefix, key), "unknown key")
 			continue
 		}

@@ -21,11 +21,11 @@ func TestPaybackHandCalculation(t *testing.T) {
 	// Installed 30 per m² → 300. Simple payback = 300 ÷ (bare cost − 519.111).
 	out := mustRun(t, `{"geometry":"flat","orientation":"vertical","operating_temp_c":100,"ambient_temp_c":20,"area_m2":10,
 		"layers":[{"k_w_mk":0.04,"thickness_mm":50}],"surface_coeff_w_m2k":10,"thicknesses_mm":[50],
-		"economics":{"energy_price_per_kwh":0.1,"efficiency":1,"hours_per_year":8760,"installed_cost_per_m":[{"thickness_mm":50,"cost":30}]}}`)
-	if len(out.Economics) != 1 {
-		t.Fatalf("rows %d", len(out.Economics))
+		"economics":{"heating":{"price_per_kwh":0.1,"efficiency":1,"hours_per_year":8760},"installed_cost_per_m":[{"thickness_mm":50,"cost":30}]}}`)
+	if len(out.Economics) != 2 || out.Economics[0].ThicknessMM != 0 {
+		t.Fatalf("rows %+v, want the bare row and 50 mm", out.Economics)
 	}
-	r := out.Economics[0]
+	r := out.Economics[1]
 	wantKWh := 80 / 1.35 * 10 * 8760 / 1000
 	if math.Abs(r.AnnualKWh-wantKWh) > 0.01 || math.Abs(r.AnnualCost-wantKWh*0.1) > 0.01 {
 		t.Errorf("annual %.3f kWh, %.3f; hand calculation %.3f kWh, %.3f", r.AnnualKWh, r.AnnualCost, wantKWh, wantKWh*0.1)
@@ -42,7 +42,7 @@ func TestPaybackHandCalculation(t *testing.T) {
 
 const econLine = `{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":150,"ambient_temp_c":15,"length_m":100,
 	"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"aluminium_new","criteria":{"economic":true},
-	"economics":{"energy_price_per_kwh":PRICE,"efficiency":0.85,"hours_per_year":8000,"life_years":15,
+	"economics":{"heating":{"price_per_kwh":PRICE,"efficiency":0.85,"hours_per_year":8000},"life_years":15,
 	"installed_cost_per_m":[{"thickness_mm":25.4,"cost":40},{"thickness_mm":38.1,"cost":48},{"thickness_mm":50.8,"cost":58},
 	{"thickness_mm":63.5,"cost":68},{"thickness_mm":76.2,"cost":80},{"thickness_mm":101.6,"cost":110},{"thickness_mm":152.4,"cost":180}]}}`
 
@@ -92,7 +92,7 @@ func TestRepeatedCostThicknessIsAFieldError(t *testing.T) {
 	// Found in review: two prices for one thickness reached calc and failed as an internal error.
 	fe := fieldErrors(t, `{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":150,"ambient_temp_c":15,
 		"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"aluminium_new",
-		"economics":{"energy_price_per_kwh":0.06,"installed_cost_per_m":[{"thickness_mm":25.4,"cost":40},{"thickness_mm":25.4,"cost":48}],
+		"economics":{"heating":{"price_per_kwh":0.06},"installed_cost_per_m":[{"thickness_mm":25.4,"cost":40},{"thickness_mm":25.4,"cost":48}],
 		"installed_cost_source":"guess"}}`)
 	for _, want := range []string{"economics.installed_cost_per_m[1].thickness_mm", "economics.installed_cost_source"} {
 		if !slices.ContainsFunc(fe, func(f FieldError) bool { return f.Field == want }) {
@@ -175,7 +175,8 @@ func TestEffectiveCostTable(t *testing.T) {
 		return in
 	}
 	set := DefaultSettings()
-	set.Economics = &Economics{EnergyPricePerKWh: ptr(0.05), Efficiency: ptr(0.85), COP: ptr(3.5)}
+	set.Economics = &Economics{Heating: &HeatingBasis{PricePerKWh: ptr(0.05), Efficiency: ptr(0.85)},
+		Cooling: &CoolingBasis{PricePerKWh: ptr(0.2), COP: ptr(3.5)}}
 	set.CostTable = CostTable{
 		{Material: mf, NominalSize: "any", ThicknessMM: 25.4, CostPerM: 30},
 		{Material: mf, NominalSize: "NPS 4", ThicknessMM: 25.4, CostPerM: 41},
@@ -198,12 +199,12 @@ func TestEffectiveCostTable(t *testing.T) {
 			s.CostTable[1].Example = true
 		}
 		eff := s.Effective("indoor", line(c.mat), Fittings{})
-		if eff.Economics.COP != nil || eff.Economics.Efficiency == nil {
-			t.Errorf("%s: a hot line priced with COP %v / efficiency %v", c.name, eff.Economics.COP, eff.Economics.Efficiency)
-		}
 		out, err := Analyse(eff, CatalogResolver{})
 		if err != nil {
 			t.Fatalf("%s: %v", c.name, err)
+		}
+		if b := out.EnergyBasis; b == nil || b.Basis != BasisHeating || b.Efficiency == nil || *b.Efficiency != 0.85 || b.COP != nil {
+			t.Errorf("%s: a hot line priced on %+v, want the heating basis at efficiency 0.85", c.name, b)
 		}
 		if !hasAssumption(out, c.assumption) {
 			t.Errorf("%s: assumptions %q lack %q", c.name, out.Assumptions, c.assumption)
@@ -221,38 +222,107 @@ func TestEffectiveCostTable(t *testing.T) {
 			t.Errorf("%s: economic thickness %v without costs", c.name, *out.Sizing.EconomicMM)
 		}
 	}
-	// A cold line of the same project is priced with the COP.
+	// A cold line of the same project is priced on the cooling basis.
 	cold := line(mf)
 	cold.OperatingTempC = ptr(6.0)
-	eff := set.Effective("indoor", cold, Fittings{})
-	if eff.Economics.COP == nil || eff.Economics.Efficiency != nil {
-		t.Errorf("cold line priced with COP %v / efficiency %v", eff.Economics.COP, eff.Economics.Efficiency)
-	}
-}
-
-func TestAnnualEnergy(t *testing.T) {
-	var in Input
-	js := strings.Replace(econLine, "PRICE", "0.06", 1)
-	if err := json.Unmarshal([]byte(js), &in); err != nil {
-		t.Fatal(err)
-	}
-	got, err := AnnualEnergy(in, CatalogResolver{})
+	out, err := Analyse(set.Effective("indoor", cold, Fittings{}), CatalogResolver{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	out := mustRun(t, js)
-	// As specified (25.4 mm) matches the 25.4 mm economics row; bare matches the bare heat
-	// flow over the run (hand calculation: q·L·h/1000/η).
-	row := out.Economics[0]
-	if math.Abs(got.Specified.AnnualKWh-row.AnnualKWh) > 0.01 || got.Specified.InstalledCost == nil || *got.Specified.InstalledCost != 4000 {
-		t.Errorf("specified %+v, row %+v", got.Specified, row)
+	if b := out.EnergyBasis; b == nil || b.Basis != BasisCooling || b.COP == nil || *b.COP != 3.5 || b.PricePerKWh != 0.2 {
+		t.Errorf("cold line priced on %+v, want the cooling basis at COP 3.5 and 0.2 per kWh", b)
 	}
-	wantBare := *out.BareHeatFlow * 100 * 8000 / 1000 / 0.85
-	if math.Abs(got.Bare.AnnualKWh-wantBare) > 0.01*wantBare/1000+0.01 {
-		t.Errorf("bare %.3f kWh, want %.3f", got.Bare.AnnualKWh, wantBare)
+}
+
+// TestEnergyBasesHandCalculation checks the two hand cases of the two energy bases to the
+// cent. The line is worked by hand: NPS 4 steel pipe, OD 114.3 mm (ASME B36.10M), wall
+// not modelled, one layer k 0.035 W/m·K 40 mm thick, a fixed surface coefficient
+// 8 W/m²·K, 100 m of run. Per metre (Fourier, cylinder; ASTM C680 approach):
+//
+//	r1 = 0.05715 m, r2 = 0.09715 m, ln(r2/r1) = 0.530577
+//	R' = ln(r2/r1)/(2π·0.035) + 1/(2π·0.09715·8) = 2.412683 + 0.204780 = 2.617463 m·K/W
+func TestEnergyBasesHandCalculation(t *testing.T) {
+	const line = `{"geometry":"pipe","pipe_od_mm":114.3,"operating_temp_c":OP,"ambient_temp_c":AMB,"length_m":100,
+		"layers":[{"k_w_mk":0.035,"thickness_mm":40}],"surface_coeff_w_m2k":8,"thicknesses_mm":[40],
+		"economics":{"currency":"EUR","heating":{"price_per_kwh":0.06,"efficiency":0.85,"hours_per_year":8000,"co2_kg_per_kwh":0.2},
+		"cooling":COOLING,"installed_cost_per_m":[{"thickness_mm":40,"cost":50}]}}`
+	for _, c := range []struct {
+		name, op, amb, cooling string
+		basis                  string
+		// Hand calculation, from R' above.
+		kwh, cost, co2 float64
+	}{
+		// Chilled water 6 °C in 26 °C air, cooling basis with no COP given (the project
+		// gives a heating efficiency): the default COP 3, never the efficiency.
+		//   q' = 20/2.617463 = 7.640986 W/m gained
+		//   heat 7.640986 × 100 m × 4000 h / 1000 = 3056.394 kWh
+		//   electricity 3056.394 / 3 = 1018.798 kWh; × 0.15 = 152.82 EUR; × 0.4 = 407.52 kg CO2
+		{"chilled water, COP 3", "6", "26", `{"price_per_kwh":0.15,"hours_per_year":4000,"co2_kg_per_kwh":0.4}`, BasisCooling,
+			1018.798, 152.82, 407.519},
+		// Hot water 80 °C in 20 °C air, both bases given: the heating basis only.
+		//   q' = 60/2.617463 = 22.922958 W/m lost
+		//   heat 22.922958 × 100 m × 8000 h / 1000 = 18338.366 kWh
+		//   fuel 18338.366 / 0.85 = 21574.548 kWh; × 0.06 = 1294.47 EUR; × 0.2 = 4314.910 kg CO2
+		{"hot water, both bases", "80", "20", `{"price_per_kwh":0.15,"cop":4.5,"hours_per_year":4000,"co2_kg_per_kwh":0.4}`, BasisHeating,
+			21574.548, 1294.47, 4314.910},
+	} {
+		js := strings.NewReplacer("OP", c.op, "AMB", c.amb, "COOLING", c.cooling).Replace(line)
+		out := mustRun(t, js)
+		if b := out.EnergyBasis; b == nil || b.Basis != c.basis || b.Currency != "EUR" {
+			t.Fatalf("%s: basis %+v, want %s in EUR", c.name, b, c.basis)
+		}
+		var row *EconomicsRow
+		for i := range out.Economics {
+			if out.Economics[i].ThicknessMM == 40 {
+				row = &out.Economics[i]
+			}
+		}
+		if row == nil {
+			t.Fatalf("%s: no 40 mm row in %+v", c.name, out.Economics)
+		}
+		if math.Abs(row.AnnualKWh-c.kwh) > 0.002 || math.Abs(row.CO2Kg-c.co2) > 0.002 {
+			t.Errorf("%s: %.3f kWh, %.3f kg CO2; hand calculation %.3f kWh, %.3f kg", c.name, row.AnnualKWh, row.CO2Kg, c.kwh, c.co2)
+		}
+		if math.Round(row.AnnualCost*100)/100 != c.cost {
+			t.Errorf("%s: %.3f EUR a year, hand calculation %.2f EUR", c.name, row.AnnualCost, c.cost)
+		}
+		if s := out.EconomicsAsSpecified; s == nil || s.AnnualCost != row.AnnualCost || s.InstalledCost == nil || *s.InstalledCost != 5000 {
+			t.Errorf("%s: as specified %+v, want the 40 mm row with installed cost 50 × 100", c.name, s)
+		}
+		if !hasAssumption(out, "economics on the "+c.basis+" basis") || !hasAssumption(out, "EUR per kWh") {
+			t.Errorf("%s: assumptions %q do not name the basis and currency", c.name, out.Assumptions)
+		}
 	}
-	in.Economics = nil
-	if got, err := AnnualEnergy(in, CatalogResolver{}); got != nil || err != nil {
-		t.Errorf("no economics: %v, %v", got, err)
+}
+
+// TestColdLineNeverTakesTheHeatingBasis: a cold line in economics with only a heating
+// price is left unpriced, with a warning naming the missing key.
+func TestColdLineNeverTakesTheHeatingBasis(t *testing.T) {
+	out := mustRun(t, `{"geometry":"pipe","pipe_od_mm":114.3,"operating_temp_c":6,"ambient_temp_c":26,"length_m":100,
+		"layers":[{"k_w_mk":0.035,"thickness_mm":40}],"surface_coeff_w_m2k":8,"thicknesses_mm":[40],
+		"economics":{"heating":{"price_per_kwh":0.06,"efficiency":0.85}}}`)
+	if len(out.Economics) != 0 || out.EnergyBasis != nil || out.EconomicsAsSpecified != nil {
+		t.Errorf("cold line priced on the heating basis: %+v %+v", out.EnergyBasis, out.Economics)
+	}
+	if !slices.ContainsFunc(out.Warnings, func(w string) bool { return strings.Contains(w, "economics.cooling.price_per_kwh") }) {
+		t.Errorf("warnings %q do not name economics.cooling.price_per_kwh", out.Warnings)
+	}
+}
+
+func TestEconomicsFieldErrors(t *testing.T) {
+	fe := fieldErrors(t, `{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":150,"ambient_temp_c":15,
+		"layers":[{"k_w_mk":0.04,"thickness_mm":25.4}],"surface_emittance":0.9,
+		"economics":{"currency":"eur","heating":{"efficiency":1.2},"cooling":{"price_per_kwh":0.1,"cop":0.5}}}`)
+	fe = append(fe, fieldErrors(t, `{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":150,"ambient_temp_c":15,
+		"layers":[{"k_w_mk":0.04,"thickness_mm":25.4}],"surface_emittance":0.9,"economics":{"energy_price_per_kwh":0.06}}`)...)
+	for _, want := range []string{"economics.energy_price_per_kwh", "economics.currency", "economics.heating.price_per_kwh",
+		"economics.heating.efficiency", "economics.cooling.cop"} {
+		if !slices.ContainsFunc(fe, func(f FieldError) bool { return f.Field == want }) {
+			t.Errorf("no error on %s: %v", want, fe)
+		}
+	}
+	if i := slices.IndexFunc(fe, func(f FieldError) bool { return f.Field == "economics.energy_price_per_kwh" }); i >= 0 &&
+		!strings.Contains(fe[i].Message, "heating.price_per_kwh") {
+		t.Errorf("the moved key's message %q does not say where it went", fe[i].Message)
 	}
 }

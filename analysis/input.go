@@ -109,21 +109,39 @@ type Criteria struct {
 	Economic            *bool    `json:"economic,omitempty"`          // economic thickness may govern
 }
 
-// Economics holds the prices and rates for the thickness economics.
+// Economics holds the prices and rates for the thickness economics. Heat lost by hot
+// lines is bought on the heating basis, heat gained by cold lines is removed on the
+// cooling basis; a line never takes a value from the other basis (an absent value
+// takes its stated default, an absent price leaves the line unpriced).
 type Economics struct {
-	EnergyPricePerKWh *float64    `json:"energy_price_per_kwh,omitempty"`
-	Efficiency        *float64    `json:"efficiency,omitempty"` // heating: heat delivered per energy bought (≤ 1)
-	COP               *float64    `json:"cop,omitempty"`        // cooling: coefficient of performance (> 1)
-	HoursPerYear      *float64    `json:"hours_per_year,omitempty"`
+	Heating *HeatingBasis `json:"heating,omitempty"`
+	Cooling *CoolingBasis `json:"cooling,omitempty"`
+	// Currency is the ISO 4217 code of every money figure (default USD).
+	Currency          string      `json:"currency,omitempty"`
 	DiscountRate      *float64    `json:"discount_rate,omitempty"`
 	EscalationRate    *float64    `json:"escalation_rate,omitempty"`
 	LifeYears         *int        `json:"life_years,omitempty"`
-	CO2KgPerKWh       *float64    `json:"co2_kg_per_kwh,omitempty"`
 	InstalledCostPerM []CostPoint `json:"installed_cost_per_m,omitempty"`
 	// InstalledCostSource says where InstalledCostPerM came from, for the assumptions:
 	// "" (given), "cost_table" (the project's cost table), "example" (the labelled example
 	// table, not prices) or "no_match" (a cost table with no row for this line).
 	InstalledCostSource string `json:"installed_cost_source,omitempty"`
+}
+
+// HeatingBasis prices heat lost by hot lines: fuel or heat bought, per kWh bought.
+type HeatingBasis struct {
+	PricePerKWh  *float64 `json:"price_per_kwh,omitempty"`
+	Efficiency   *float64 `json:"efficiency,omitempty"` // heat delivered per energy bought (≤ 1), default 0.8
+	HoursPerYear *float64 `json:"hours_per_year,omitempty"`
+	CO2KgPerKWh  *float64 `json:"co2_kg_per_kwh,omitempty"` // per kWh bought
+}
+
+// CoolingBasis prices heat gained by cold lines: electricity bought for the chiller.
+type CoolingBasis struct {
+	PricePerKWh  *float64 `json:"price_per_kwh,omitempty"`
+	COP          *float64 `json:"cop,omitempty"` // heat removed per electricity bought (> 1), default 3.0
+	HoursPerYear *float64 `json:"hours_per_year,omitempty"`
+	CO2KgPerKWh  *float64 `json:"co2_kg_per_kwh,omitempty"` // per kWh of electricity
 }
 
 // CostPoint is the installed cost of one thickness, per metre of pipe or duct (per m²

@@ -44,6 +44,10 @@ type Output struct {
 	Sizing     Sizing         `json:"sizing"`
 	EnergyCode *EnergyCodeRow `json:"energy_code"`
 	Economics  []EconomicsRow `json:"economics"`
+	// EnergyBasis is the basis the economics used (nil without economics or a price).
+	EnergyBasis *EnergyBasis `json:"energy_basis"`
+	// EconomicsAsSpecified prices the line's own build (project totals, audit).
+	EconomicsAsSpecified *EconomicsRow `json:"economics_as_specified"`
 
 	ConditionsUsed ConditionsUsed `json:"conditions_used"`
 	Assumptions    []string       `json:"assumptions"`
@@ -118,6 +122,7 @@ type EnergyCodeRow struct {
 // EconomicsRow is one candidate thickness priced over the life.
 type EconomicsRow struct {
 	ThicknessMM             float64  `json:"thickness_mm"`
+	AsFound                 bool     `json:"as_found,omitempty"` // the line as found (existing), not a candidate
 	HeatFlowWPerM           float64  `json:"heat_flow_w_per_m"`
 	SurfaceTempC            float64  `json:"surface_temp_c"`
 	AnnualKWh               float64  `json:"annual_kwh"`
@@ -128,6 +133,27 @@ type EconomicsRow struct {
 	NPV                     *float64 `json:"npv"`
 	LifeCycleCost           *float64 `json:"life_cycle_cost"`
 	CO2Kg                   float64  `json:"co2_kg"`
+	// AnnualSavings is energy, money and CO2 saved a year against the bare row.
+	AnnualSavings *Savings `json:"annual_savings"`
+}
+
+// Savings is what a build saves a year against another: energy bought, money, CO2.
+type Savings struct {
+	KWh   float64 `json:"kwh"`
+	Cost  float64 `json:"cost"`
+	CO2Kg float64 `json:"co2_kg"`
+}
+
+// EnergyBasis is the one energy basis a line was priced on, echoed for every figure:
+// "heating" (Efficiency set) for hot lines, "cooling" (COP set) for cold lines.
+type EnergyBasis struct {
+	Basis        string   `json:"basis"`
+	Currency     string   `json:"currency"`
+	PricePerKWh  float64  `json:"price_per_kwh"`
+	Efficiency   *float64 `json:"efficiency,omitempty"`
+	COP          *float64 `json:"cop,omitempty"`
+	HoursPerYear float64  `json:"hours_per_year"`
+	CO2KgPerKWh  float64  `json:"co2_kg_per_kwh"`
 }
 
 // ConditionsUsed echoes the air each criterion was judged in.

@@ -104,6 +104,9 @@ func (p ProjectSettings) Validate() error {
 	}
 	rangeCheck(&c, "settings.criteria.max_surface_temp_c", p.Criteria.MaxSurfaceTempC, 20, 200, "°C")
 	rangeCheck(&c, "settings.criteria.dew_margin_k", p.Criteria.DewMarginK, 0, 20, "K")
+	if p.Economics != nil {
+		checkEconomics(p.Economics, "settings.economics.", false, &c)
+	}
 	for _, fe := range CostTable(p.CostTable).Validate() {
 		c.add(fmt.Sprintf("settings.cost_table[%d].%s", fe.Row, fe.Field), "%s", fe.Message)
 	}
@@ -153,15 +156,8 @@ func (p ProjectSettings) Effective(location string, line Input, fit Fittings) In
 		cr.EnergyCode = p.Criteria.EnergyCode
 	}
 	in.Criteria = &cr
-	if in.Economics == nil && p.Economics != nil && p.Economics.EnergyPricePerKWh != nil {
-		e := *p.Economics
-		if e.Efficiency != nil && e.COP != nil { // the project prices hot and cold lines
-			if lineIsHot(in) {
-				e.COP = nil
-			} else {
-				e.Efficiency = nil
-			}
-		}
+	if in.Economics == nil && p.Economics.Priced() {
+		e := *p.Economics // both bases: the analysis picks the line's own
 		if len(e.InstalledCostPerM) == 0 && len(p.CostTable) > 0 {
 			mat := ""
 			if n := len(in.Layers); n > 0 {
@@ -215,16 +211,6 @@ func (in Input) Slugs() (materials []string, jacket string) {
 		}
 	}
 	return materials, in.Jacket
-}
-
-// lineIsHot tells a line that loses heat (priced by the heating efficiency) from one
-// that gains it (priced by the cooling COP): saturated steam, or an operating
-// temperature above the ambient.
-func lineIsHot(in Input) bool {
-	if in.SteamGaugePressureKPa != nil {
-		return true
-	}
-	return in.OperatingTempC != nil && in.AmbientTempC != nil && *in.OperatingTempC > *in.AmbientTempC
 }
 
 // AnySize is the nominal size of a cost row that prices every size of its material.

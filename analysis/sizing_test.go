@@ -180,10 +180,10 @@ func TestEconomicThicknessIsLeastLifeCycleCost(t *testing.T) {
 	out := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":150,"ambient_temp_c":15,"length_m":100,
 		"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"aluminium_new",
 		"criteria":{"economic":true},
-		"economics":{"energy_price_per_kwh":0.06,"efficiency":0.85,"hours_per_year":8000,"life_years":15,
+		"economics":{"heating":{"price_per_kwh":0.06,"efficiency":0.85,"hours_per_year":8000},"life_years":15,
 		"installed_cost_per_m":[{"thickness_mm":25.4,"cost":40},{"thickness_mm":38.1,"cost":48},{"thickness_mm":50.8,"cost":58},
 		{"thickness_mm":76.2,"cost":80},{"thickness_mm":101.6,"cost":110}]}}`)
-	if out.Sizing.EconomicMM == nil || len(out.Economics) != 5 {
+	if out.Sizing.EconomicMM == nil || len(out.Economics) != 6 || out.Economics[0].ThicknessMM != 0 {
 		t.Fatalf("economic_mm = %v, rows %d", out.Sizing.EconomicMM, len(out.Economics))
 	}
 	best := out.Economics[0]
@@ -221,7 +221,7 @@ func FuzzRun(f *testing.F) {
 var benchLine = []byte(`{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":180,"ambient_temp_c":20,"relative_humidity_pct":60,
 		"length_m":50,"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":50.8}],"jacket":"aluminium_new",
 		"criteria":{"energy_code":"ashrae-90.1-2016","max_heat_flow_w_per_m":80},
-		"economics":{"energy_price_per_kwh":0.05,"installed_cost_per_m":[{"thickness_mm":25.4,"cost":30},{"thickness_mm":38.1,"cost":36},
+		"economics":{"heating":{"price_per_kwh":0.05},"installed_cost_per_m":[{"thickness_mm":25.4,"cost":30},{"thickness_mm":38.1,"cost":36},
 		{"thickness_mm":50.8,"cost":44},{"thickness_mm":63.5,"cost":52},{"thickness_mm":76.2,"cost":60},{"thickness_mm":101.6,"cost":80}]}}`)
 
 // solvesOf analyses js and counts the distinct heat balances it solved and their residual

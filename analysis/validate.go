@@ -973,24 +973,7 @@ func resolveEconomics(l *line, c *errs) {
 	if e == nil {
 		return
 	}
-	if e.EnergyPricePerKWh == nil {
-		c.add("economics.energy_price_per_kwh", "is required for economics")
-	}
-	rangeCheck(c, "economics.energy_price_per_kwh", e.EnergyPricePerKWh, 0, 100, "per kWh")
-	if e.Efficiency != nil && (*e.Efficiency <= 0 || *e.Efficiency > 1) {
-		c.add("economics.efficiency", "must be greater than 0 and at most 1")
-	}
-	rangeCheck(c, "economics.cop", e.COP, 1.01, 20, "")
-	if e.Efficiency != nil && e.COP != nil {
-		c.add("economics.cop", "give efficiency (heating) or cop (cooling), not both")
-	}
-	rangeCheck(c, "economics.hours_per_year", e.HoursPerYear, 1, 8784, "h")
-	rangeCheck(c, "economics.discount_rate", e.DiscountRate, -0.5, 1, "")
-	rangeCheck(c, "economics.escalation_rate", e.EscalationRate, -0.5, 1, "")
-	if e.LifeYears != nil && (*e.LifeYears < 1 || *e.LifeYears > 100) {
-		c.add("economics.life_years", "must be between 1 and 100 years")
-	}
-	rangeCheck(c, "economics.co2_kg_per_kwh", e.CO2KgPerKWh, 0, 5, "kg/kWh")
+	checkEconomics(e, "economics.", true, c)
 	if len(e.InstalledCostPerM) > maxCandidates {
 		c.add("economics.installed_cost_per_m", "must have at most %d entries", maxCandidates)
 	}

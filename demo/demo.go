@@ -41,7 +41,7 @@ func ft(v float64) float64 { return v * 0.3048 }
 func psig(v float64) float64 { return v * 6.894757293168361 }
 
 // Settings are the demo project's conditions: a temperate plant room, a humid summer
-// outdoors with a hard winter, ASHRAE 90.1 minimums and natural-gas economics.
+// outdoors with a hard winter, ASHRAE 90.1 minimums, natural-gas heating and electric chillers.
 func Settings() analysis.ProjectSettings {
 	s := analysis.DefaultSettings()
 	s.Indoor = analysis.Location{AmbientTempC: 24, RelativeHumidityPct: f(55), Conditions: &analysis.Conditions{
@@ -52,8 +52,11 @@ func Settings() analysis.ProjectSettings {
 		Economics: &analysis.ConditionSet{AmbientTempC: f(11), WindMS: f(3.4)},
 	}}
 	s.Criteria.EnergyCode = "ashrae-90.1-2016"
-	s.Economics = &analysis.Economics{EnergyPricePerKWh: f(0.035), Efficiency: f(0.82), HoursPerYear: f(6000),
-		DiscountRate: f(0.05), EscalationRate: f(0.025), LifeYears: i(20), CO2KgPerKWh: f(0.18)}
+	// Invented prices: natural gas for the boilers, grid electricity for the chillers.
+	s.Economics = &analysis.Economics{Currency: "USD",
+		Heating:      &analysis.HeatingBasis{PricePerKWh: f(0.035), Efficiency: f(0.82), HoursPerYear: f(6000), CO2KgPerKWh: f(0.18)},
+		Cooling:      &analysis.CoolingBasis{PricePerKWh: f(0.13), COP: f(3.0), HoursPerYear: f(6000), CO2KgPerKWh: f(0.35)},
+		DiscountRate: f(0.05), EscalationRate: f(0.025), LifeYears: i(20)}
 	return s
 }
 

@@ -41,7 +41,7 @@ func cmpCompareSide(set analysis.ProjectSettings, l store.Line, own analysis.Inp
 	thick := slices.Clone(out.Sizing.Candidates)
 	priced := map[float64]analysis.EconomicsRow{}
 	for _, r := range out.Economics {
-		if r.InstalledCost != nil {
+		if r.InstalledCost != nil && r.ThicknessMM > 0 { // not the bare row
 			priced[r.ThicknessMM] = r
 			side.priced = true
 			if !slices.Contains(thick, r.ThicknessMM) {
@@ -60,8 +60,8 @@ func cmpCompareSide(set analysis.ProjectSettings, l store.Line, own analysis.Inp
 		e.InstalledCostPerM, e.InstalledCostSource = nil, ""
 		all.Economics = &e
 	} else {
-		zero := 0.0
-		all.Economics = &analysis.Economics{EnergyPricePerKWh: &zero}
+		zero := 0.0 // energy at the default efficiency or COP, priced at nothing
+		all.Economics = &analysis.Economics{Heating: &analysis.HeatingBasis{PricePerKWh: &zero}, Cooling: &analysis.CoolingBasis{PricePerKWh: &zero}}
 	}
 	cr := analysis.Criteria{}
 	all.Criteria = &cr // criteria are judged on the first pass
@@ -172,6 +172,7 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 	if flat {
 		qQty = units.HeatFlux
 	}
+	cur := c.Set.Economics.CurrencyCode()
 	runLen := 0.0
 	if main.EquivalentLengthM != nil {
 		runLen = *main.EquivalentLengthM
@@ -192,10 +193,14 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 			HasRun:    runLen > 0 && !flat,
 			Surface:   "Surface, " + units.Label(units.Temp, sys),
 			Energy:    "Energy, kWh/year",
-			Cost:      "Energy cost/year",
+			Cost:      "Energy cost/year, " + cur,
 			CO2:       "CO2, kg/year",
-			Installed: "Installed cost",
+			Installed: "Installed cost, " + cur,
+			Money:     cur,
 		},
+	}
+	if b := main.EnergyBasis; b != nil {
+		v.Head.Basis = cmpBasisText(*b)
 	}
 	if sys == units.US {
 		v.Head.Energy2 = "Energy, MMBtu/year"
@@ -279,8 +284,15 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 				LCC:         cmpMoneyPtr(r.LifeCycleCost),
 				Current:     i == 0 && cmpAbs(r.ThicknessMM-outerNow) < 0.005,
 			}
-			if eff.Economics == nil {
-				row.Cost = "—"
+			row.SavingBare = "—"
+			if r.AnnualSavings != nil {
+				row.SavingBare = cmpMoney(r.AnnualSavings.Cost)
+			}
+			if eff.Economics == nil || sd.out.EnergyBasis == nil {
+				row.Cost, row.SavingBare = "—", "—"
+			}
+			if r.ThicknessMM == 0 {
+				row.Thickness, row.Bare = "bare", true
 			}
 			if r.InstalledCost == nil {
 				row.Simple, row.Incremental = "—", "—"
@@ -301,6 +313,21 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 	v.Warnings = withUSValuesAll(sys, main.Warnings)
 	v.Assumptions = withUSValuesAll(sys, main.Assumptions)
 	return v
+}
+
+// cmpBasisText names the energy basis a line is priced on, in words.
+func cmpBasisText(b analysis.EnergyBasis) string {
+	conv := ""
+	switch {
+	case b.Efficiency != nil:
+		conv = "efficiency " + strconv.FormatFloat(*b.Efficiency*100, 'f', -1, 64) + " %"
+	case b.COP != nil:
+		conv = "COP " + strconv.FormatFloat(*b.COP, 'f', -1, 64)
+	}
+	what := map[string]string{analysis.BasisHeating: "heat lost, bought as fuel or heat", analysis.BasisCooling: "heat gained, removed by electric cooling"}[b.Basis]
+	return fmt.Sprintf("Priced on the %s basis (%s): %s %s per kWh bought, %s, %s h a year, %s kg CO2 per kWh bought.",
+		b.Basis, what, strconv.FormatFloat(b.PricePerKWh, 'f', -1, 64), b.Currency, conv, strconv.FormatFloat(b.HoursPerYear, 'f', -1, 64),
+		strconv.FormatFloat(b.CO2KgPerKWh, 'f', -1, 64))
 }
 
 func cmpThickOrBare(thick func(float64) string, mm float64) string {

@@ -25,7 +25,7 @@ func cmpFixture(t *testing.T, st *store.Store, sys string) (store.Project, store
 	ctx := context.Background()
 	f := func(v float64) *float64 { return &v }
 	set := analysis.DefaultSettings()
-	set.Economics = &analysis.Economics{EnergyPricePerKWh: f(0.06), Efficiency: f(0.85), HoursPerYear: f(8000)}
+	set.Economics = &analysis.Economics{Heating: &analysis.HeatingBasis{PricePerKWh: f(0.06), Efficiency: f(0.85), HoursPerYear: f(8000)}}
 	for _, tmm := range []float64{25.4, 38.1, 50.8, 63.5, 76.2, 101.6} {
 		set.CostTable = append(set.CostTable, analysis.CostRow{Material: cmpMF, NominalSize: "any", ThicknessMM: tmm,
 			CostPerM: 20 + 0.6*tmm + 0.004*tmm*tmm})

@@ -61,7 +61,7 @@ func TestCostTable(t *testing.T) {
 		gs.CostTable[1].NominalSize != "any" || gs.CostTable[1].ThicknessMM != 38.1 {
 		t.Errorf("saved table %+v", gs.CostTable)
 	}
-	if gs.Economics == nil || *gs.Economics.EnergyPricePerKWh != *set.Economics.EnergyPricePerKWh {
+	if gs.Economics == nil || *gs.Economics.Heating.PricePerKWh != *set.Economics.Heating.PricePerKWh {
 		t.Error("saving the cost table lost the project's economics")
 	}
 	// A stale version: 409.

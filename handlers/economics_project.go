@@ -13,46 +13,60 @@ import (
 	"lagwright/web"
 )
 
-// econTotal sums one case over the lines.
+// econYear is one line's year in one case: energy bought, its cost and CO2, and the
+// installed cost (nil where no price is known).
+type econYear struct {
+	kwh, cost, co2 float64
+	invest         *float64
+}
+
+func econYearOf(r analysis.EconomicsRow) econYear {
+	return econYear{kwh: r.AnnualKWh, cost: r.AnnualCost, co2: r.CO2Kg, invest: r.InstalledCost}
+}
+
+// econTotal sums one case over the lines of one energy basis.
 type econTotal struct {
 	kwh, cost, co2, invest float64
 	unpriced               int // lines whose investment is unknown
+	lines                  int
 }
 
-func (t *econTotal) add(y analysis.EnergyYear) {
-	t.kwh += y.AnnualKWh
-	t.cost += y.AnnualCost
-	t.co2 += y.CO2Kg
-	if y.InstalledCost != nil {
-		t.invest += *y.InstalledCost
+func (t *econTotal) add(y econYear) {
+	t.lines++
+	t.kwh += y.kwh
+	t.cost += y.cost
+	t.co2 += y.co2
+	if y.invest != nil {
+		t.invest += *y.invest
 	} else {
 		t.unpriced++
 	}
 }
 
-// economicsProject shows GET /projects/{id}/economics: totals as specified, bare and
-// at each line's economic thickness, the lines one by one, and the annual energy by
-// service. Stored answers give the economic thicknesses; the as-specified and bare
-// energies take two heat balances per line at its economics conditions.
+// econBasisTotals are one energy basis's three cases.
+type econBasisTotals struct{ spec, bare, eco econTotal }
+
+// economicsProject shows GET /projects/{id}/economics: totals as specified, bare and at
+// each line's economic thickness, kept apart by energy basis (heating: fuel or heat
+// bought for hot lines; cooling: electricity for cold lines), the lines one by one, and
+// the annual energy by service. Everything is read from the lines' stored answers
+// (recomputed only where stale): the as-specified row, the bare row and the row of the
+// economic thickness of each answer's economics.
 func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
-	p, _ := projectOf(r)
+	p, set := projectOf(r)
 	lines, err := s.projectLines(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
-	lib, err := s.library(r.Context())
-	if err != nil {
-		s.fail(w, r, err)
-		return
-	}
 	sys := cmpSystem(p)
+	cur := set.Economics.CurrencyCode()
 	v := web.EconomicsView{Assets: s.assets.urls, Title: "Economics: " + p.Name, ProjectURL: cmpProjectURL(p.ID),
-		CostsURL: cmpCostsURL(p.ID), EnergyHead: "Energy, kWh/year"}
+		CostsURL: cmpCostsURL(p.ID), EnergyHead: "Energy bought, kWh/year", Currency: cur}
 	if sys == units.US {
-		v.Energy2Head = "Energy, MMBtu/year"
+		v.Energy2Head = "Energy bought, MMBtu/year"
 	}
-	var spec, bare, eco econTotal
+	totals := map[string]*econBasisTotals{analysis.BasisHeating: {}, analysis.BasisCooling: {}}
 	byService := map[string]float64{}
 	var noPrice, failed, noEconomic, example int
 	for _, lv := range lines {
@@ -65,76 +79,89 @@ func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
 			v.Lines = append(v.Lines, row)
 			continue
 		}
-		le, err := analysis.AnnualEnergy(lv.Effective, lib)
-		if err != nil || le == nil {
-			if err != nil {
-				failed++
-				row.Note = "not computed"
-			} else {
-				noPrice++
-				row.Note = "no energy price"
-			}
+		if out.EnergyBasis == nil || out.EconomicsAsSpecified == nil || len(out.Economics) == 0 {
+			noPrice++
+			row.Note = "not priced: no energy price for its basis"
 			v.Lines = append(v.Lines, row)
 			continue
 		}
 		if slices.Contains(out.Assumptions, analysis.ExampleCostsAssumption) {
 			example++
 		}
-		ecoYear := le.Specified
-		row.Specified = units.Format(units.Length, sys, le.Specified.ThicknessMM)
+		basis := out.EnergyBasis.Basis
+		row.Basis = basis
+		specRow := *out.EconomicsAsSpecified
+		spec := econYearOf(specRow)
+		bare := econYear{kwh: out.Economics[0].AnnualKWh, cost: out.Economics[0].AnnualCost, co2: out.Economics[0].CO2Kg, invest: ptrTo(0.0)}
+		eco := spec
+		row.Specified = units.Format(units.Length, sys, specRow.ThicknessMM)
 		switch e := out.Sizing.EconomicMM; {
 		case e == nil:
 			noEconomic++
 			row.Economic, row.Note = "—", "no installed costs: counted as specified"
 		case *e == 0:
-			ecoYear = le.Bare
+			eco = bare
 			row.Economic = "bare"
 		default:
 			row.Economic = units.Format(units.Length, sys, *e)
 			for _, er := range out.Economics {
-				if er.ThicknessMM == *e {
-					ecoYear = analysis.EnergyYear{ThicknessMM: *e, AnnualKWh: er.AnnualKWh, AnnualCost: er.AnnualCost, CO2Kg: er.CO2Kg, InstalledCost: er.InstalledCost}
+				if er.ThicknessMM == *e && !er.AsFound {
+					eco = econYearOf(er)
 				}
 			}
 		}
-		spec.add(le.Specified)
-		bare.add(le.Bare)
-		eco.add(ecoYear)
-		byService[cmp.Or(lv.Line.Service, "(no service)")] += le.Specified.AnnualKWh
-		row.EnergySpec, row.EnergyEco = cmpNumber(le.Specified.AnnualKWh), cmpNumber(ecoYear.AnnualKWh)
-		row.CostSpec, row.CostEco = cmpMoney(le.Specified.AnnualCost), cmpMoney(ecoYear.AnnualCost)
+		t := totals[basis]
+		t.spec.add(spec)
+		t.bare.add(bare)
+		t.eco.add(eco)
+		byService[cmp.Or(lv.Line.Service, "(no service)")] += spec.kwh
+		row.EnergySpec, row.EnergyEco = cmpNumber(spec.kwh), cmpNumber(eco.kwh)
+		row.CostSpec, row.CostEco = cmpMoney(spec.cost), cmpMoney(eco.cost)
 		v.Lines = append(v.Lines, row)
 	}
-	scen := func(key, name string, t econTotal, invest bool) web.EconScenario {
+	scen := func(key, name string, t, bare econTotal, invest bool) web.EconScenario {
 		sc := web.EconScenario{Key: key, Name: name, Energy: cmpNumber(t.kwh), Energy2: units.Format(units.Energy, units.US, t.kwh),
 			Cost: cmpMoney(t.cost), CO2: cmpNumber(t.co2), Investment: "—", Payback: "—"}
-		if invest {
-			sc.Investment = cmpMoney(t.invest)
-			if saving := bare.cost - t.cost; saving > 0 {
-				y := t.invest / saving
-				sc.Payback = cmpYears(&y)
-			} else {
-				sc.Payback = "none"
-			}
-			if t.unpriced > 0 {
-				sc.Note = fmt.Sprintf("%d line(s) without an installed cost are not in the investment", t.unpriced)
-			}
+		if !invest {
+			return sc
+		}
+		priced := t.lines - t.unpriced
+		if priced == 0 { // no investment known: no payback either
+			sc.Note = "no installed costs"
+			return sc
+		}
+		sc.Investment = cmpMoney(t.invest)
+		if saving := bare.cost - t.cost; saving > 0 {
+			y := t.invest / saving
+			sc.Payback = cmpYears(&y)
+		} else {
+			sc.Payback = "none"
+		}
+		if t.unpriced > 0 {
+			sc.Note = fmt.Sprintf("%d line(s) without an installed cost are not in the investment", t.unpriced)
 		}
 		return sc
 	}
-	v.Scenarios = []web.EconScenario{
-		scen("specified", "As specified", spec, true),
-		scen("bare", "Bare (no insulation)", bare, false),
-		scen("economic", "Each line at its economic thickness", eco, true),
+	for _, b := range []struct{ key, name string }{{analysis.BasisHeating, "Heating (hot lines: fuel or heat bought)"},
+		{analysis.BasisCooling, "Cooling (cold lines: electricity bought)"}} {
+		t := totals[b.key]
+		if t.spec.lines == 0 {
+			continue
+		}
+		v.Bases = append(v.Bases, web.EconBasisTotals{Key: b.key, Name: b.name, Lines: t.spec.lines, Scenarios: []web.EconScenario{
+			scen("specified", "As specified", t.spec, t.bare, true),
+			scen("bare", "Bare (no insulation)", t.bare, t.bare, false),
+			scen("economic", "Each line at its economic thickness", t.eco, t.bare, true),
+		}})
 	}
 	switch {
 	case len(lines) == 0:
 		v.Notices = append(v.Notices, "This project has no lines yet.")
 	case noPrice == len(lines):
-		v.Notices = append(v.Notices, "The project has no energy price: set one in the project's settings.")
+		v.Notices = append(v.Notices, "No line is priced: set a heating and/or cooling price in the project's settings.")
 	}
 	if noPrice > 0 && noPrice < len(lines) {
-		v.Notices = append(v.Notices, fmt.Sprintf("%d line(s) have no energy price and are left out.", noPrice))
+		v.Notices = append(v.Notices, fmt.Sprintf("%d line(s) have no energy price for their basis (heating for hot lines, cooling for cold ones) and are left out.", noPrice))
 	}
 	if failed > 0 {
 		v.Notices = append(v.Notices, fmt.Sprintf("%d line(s) have input errors and are left out.", failed))
@@ -150,7 +177,7 @@ func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
 		if sys == units.US {
 			label = "MMBtu/year"
 		}
-		chart := web.BarChartView{ID: "chart-energy-by-service", Title: "Annual energy by service, as specified", XLabel: "energy bought, " + label}
+		chart := web.BarChartView{ID: "chart-energy-by-service", Title: "Annual energy bought by service, as specified", XLabel: "energy bought, " + label}
 		for svc, kwh := range byService {
 			val := units.FromSI(q, sys, kwh)
 			chart.Bars = append(chart.Bars, web.Bar{Label: svc, Value: val, ValueText: units.Format(q, sys, kwh) + " " + label})
@@ -159,10 +186,13 @@ func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
 		v.Chart = &chart
 	}
 	v.Assumptions = []string{
-		"Energy bought = heat flow × (length + fittings' equivalent length) × hours ÷ plant efficiency (hot lines) or COP (cold lines), at each line's economics conditions.",
-		"Investment is the installed cost from the project's cost table at the thickness in question; simple payback = investment ÷ first-year saving against bare.",
+		"Hot lines are priced on the heating basis: energy bought = heat lost × hours ÷ plant efficiency, at the heating price. Cold lines are priced on the cooling basis: electricity bought = heat gained × hours ÷ COP, at the cooling price. A line never takes the other basis; the two are totalled apart (a kWh of fuel and a kWh of electricity are not added).",
+		"Heat flows are per (length + fittings' equivalent length), at each line's economics conditions, from the lines' stored answers.",
+		"Money is in " + cur + " (ISO 4217). Investment is the installed cost from the project's cost table at the thickness in question; simple payback = investment ÷ first-year saving against bare. Without any installed cost there is no investment and no payback (—).",
 		"The economic thickness of a line is the least life-cycle cost among its priced thicknesses (present worth by NIST Handbook 135's modified uniform present-worth factor).",
 	}
 	w.Header().Set("Cache-Control", "no-store")
 	templ.Handler(web.Economics(v)).ServeHTTP(w, r)
 }
+
+func ptrTo[T any](v T) *T { return &v }

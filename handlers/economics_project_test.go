@@ -30,7 +30,8 @@ func TestProjectEconomics(t *testing.T) {
 		t.Fatalf("GET %s = %d\n%s", target, rec.Code, rec.Body)
 	}
 	body := rec.Body.String()
-	for _, want := range []string{`data-scenario="specified"`, `data-scenario="bare"`, `data-scenario="economic"`,
+	for _, want := range []string{`data-scenario="specified" data-basis="heating"`, `data-scenario="bare"`, `data-scenario="economic"`,
+		`data-testid="economics-totals-heating"`, "Energy cost/year, USD",
 		`data-testid="chart-energy-by-service"`, `data-label="steam"`, `data-label="heating hot water"`, "ST-1", "HW-1",
 		`class="tick x-tick"`} {
 		if !strings.Contains(body, want) {
@@ -39,6 +40,34 @@ func TestProjectEconomics(t *testing.T) {
 	}
 	if strings.Contains(body, "labelled example") {
 		t.Error("real costs reported as the example")
+	}
+	// The project has no cooling price: a chilled-water line is left out, never priced
+	// on the heating basis.
+	cold := `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":6,"length_m":60,
+		"layers":[{"material":"` + cmpMF + `","thickness_mm":25.4}],"jacket":"all_service_jacket"}`
+	if _, err := st.CreateLine(context.Background(), store.Line{ProjectID: p.ID, Tag: "CHW-1", Service: "chilled water",
+		Input: json.RawMessage(cold)}, []string{cmpMF}); err != nil {
+		t.Fatal(err)
+	}
+	body = do(t, h, "GET", target, nil, nil).Body.String()
+	if strings.Contains(body, `data-testid="economics-totals-cooling"`) || !strings.Contains(body, "1 line(s) have no energy price for their basis") {
+		t.Error("a cold line without a cooling price was priced, or not reported")
+	}
+	// With a cooling price the cold line is totalled apart from the hot ones.
+	pr, _ := st.Project(context.Background(), p.ID)
+	var withCooling map[string]any
+	_ = json.Unmarshal(pr.Settings, &withCooling)
+	withCooling["economics"].(map[string]any)["cooling"] = map[string]any{"price_per_kwh": 0.15}
+	pr.Settings, _ = json.Marshal(withCooling)
+	if _, err := st.UpdateProject(context.Background(), pr); err != nil {
+		t.Fatal(err)
+	}
+	body = do(t, h, "GET", target, nil, nil).Body.String()
+	for _, want := range []string{`data-scenario="specified" data-basis="cooling"`, `data-testid="economics-totals-cooling"`,
+		"Cooling (cold lines: electricity bought): project totals of 1 line(s)", "Heating (hot lines: fuel or heat bought): project totals of 2 line(s)"} {
+		if !strings.Contains(body, want) {
+			t.Errorf("economics page with both bases lacks %q", want)
+		}
 	}
 	// Steam loses more than hot water: its bar is drawn first (sorted by energy).
 	if strings.Index(body, `data-label="steam"`) > strings.Index(body, `data-label="heating hot water"`) {

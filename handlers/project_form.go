@@ -53,14 +53,17 @@ func projectNumFields() []numField {
 	out = append(out,
 		numField{Key: "settings.criteria.max_surface_temp_c", Q: units.Temp, Label: "Touch limit"},
 		numField{Key: "settings.criteria.dew_margin_k", Q: units.TempDiff, Label: "Dew-point margin"},
-		numField{Key: "settings.economics.energy_price_per_kwh", Label: "Energy price per kWh"},
-		numField{Key: "settings.economics.efficiency", Scale: 0.01, Label: "Heating efficiency"},
-		numField{Key: "settings.economics.cop", Label: "Cooling COP"},
-		numField{Key: "settings.economics.hours_per_year", Label: "Hours a year"},
+		numField{Key: "settings.economics.heating.price_per_kwh", Label: "Heating: price per kWh bought"},
+		numField{Key: "settings.economics.heating.efficiency", Scale: 0.01, Label: "Heating: plant efficiency"},
+		numField{Key: "settings.economics.heating.hours_per_year", Label: "Heating: hours a year"},
+		numField{Key: "settings.economics.heating.co2_kg_per_kwh", Label: "Heating: CO2 per kWh bought (kg)"},
+		numField{Key: "settings.economics.cooling.price_per_kwh", Label: "Cooling: price per kWh of electricity"},
+		numField{Key: "settings.economics.cooling.cop", Label: "Cooling: COP"},
+		numField{Key: "settings.economics.cooling.hours_per_year", Label: "Cooling: hours a year"},
+		numField{Key: "settings.economics.cooling.co2_kg_per_kwh", Label: "Cooling: CO2 per kWh of electricity (kg)"},
 		numField{Key: "settings.economics.discount_rate", Scale: 0.01, Label: "Discount rate"},
 		numField{Key: "settings.economics.escalation_rate", Scale: 0.01, Label: "Energy escalation"},
 		numField{Key: "settings.economics.life_years", Int: true, Label: "Life (years)"},
-		numField{Key: "settings.economics.co2_kg_per_kwh", Label: "CO2 per kWh (kg)"},
 		numField{Key: "settings.fittings.elbow_m", Q: units.LongLength, Label: "Elbow"},
 		numField{Key: "settings.fittings.tee_m", Q: units.LongLength, Label: "Tee"},
 		numField{Key: "settings.fittings.valve_m", Q: units.LongLength, Label: "Valve"},
@@ -133,22 +136,6 @@ func (p *projectInput) validate() analysis.FieldErrors {
 			rng(pre+"initial_temp_c", cs.InitialTempC, 0, 850)
 		}
 	}
-	if e := p.Settings.Economics; e != nil {
-		const pre = "settings.economics."
-		if e.EnergyPricePerKWh == nil {
-			add(pre+"energy_price_per_kwh", "is required when any economics value is given")
-		}
-		rng(pre+"energy_price_per_kwh", e.EnergyPricePerKWh, 0, 100)
-		rng(pre+"efficiency", e.Efficiency, 0.01, 1)
-		rng(pre+"cop", e.COP, 1.01, 20)
-		rng(pre+"hours_per_year", e.HoursPerYear, 1, 8784)
-		rng(pre+"discount_rate", e.DiscountRate, -0.5, 1)
-		rng(pre+"escalation_rate", e.EscalationRate, -0.5, 1)
-		rng(pre+"co2_kg_per_kwh", e.CO2KgPerKWh, 0, 10)
-		if e.LifeYears != nil && (*e.LifeYears < 1 || *e.LifeYears > 100) {
-			add(pre+"life_years", "must be between 1 and 100")
-		}
-	}
 	if c := p.Settings.Criteria.EnergyCode; c != "" {
 		if _, ok := catalog.CodeTableByID(c); !ok {
 			add("settings.criteria.energy_code", "unknown energy-code table")
@@ -169,7 +156,7 @@ func (p *projectInput) project() store.Project {
 func projectFormFromRequest(r *http.Request) (*formState, projectInput) {
 	st := newFormState()
 	var in projectInput
-	for _, k := range []string{"name", "client", "site", "units", "version", "settings.criteria.energy_code"} {
+	for _, k := range []string{"name", "client", "site", "units", "version", "settings.criteria.energy_code", "settings.economics.currency"} {
 		st.Values.Set(k, r.PostForm.Get(k))
 	}
 	in.Name, in.Client, in.Site = r.PostForm.Get("name"), r.PostForm.Get("client"), r.PostForm.Get("site")
@@ -187,6 +174,9 @@ func projectFormFromRequest(r *http.Request) (*formState, projectInput) {
 	}
 	if c := r.PostForm.Get("settings.criteria.energy_code"); c != "" {
 		formSetPath(m, "settings.criteria.energy_code", c)
+	}
+	if c := strings.ToUpper(strings.TrimSpace(r.PostForm.Get("settings.economics.currency"))); c != "" {
+		formSetPath(m, "settings.economics.currency", c)
 	}
 	settings, _ := m["settings"].(map[string]any)
 	if settings == nil {
@@ -214,6 +204,9 @@ func projectFormValues(p store.Project, set analysis.ProjectSettings) *formState
 	st.Values.Set("units", p.Units)
 	st.Values.Set("version", strconv.Itoa(p.Version))
 	st.Values.Set("settings.criteria.energy_code", set.Criteria.EnergyCode)
+	if set.Economics != nil {
+		st.Values.Set("settings.economics.currency", set.Economics.Currency)
+	}
 	writeNums(map[string]any{"settings": jsonMap(set)}, projectNumFields(), units.System(p.Units), st)
 	return st
 }

@@ -45,9 +45,11 @@ func ptProjectForm() url.Values {
 		"settings.outdoor.ambient_temp_c": {"90"}, "settings.outdoor.wind_m_s": {"7.5"},
 		"settings.outdoor.conditions.freeze.ambient_temp_c": {"0"}, "settings.outdoor.conditions.freeze.initial_temp_c": {"50"},
 		"settings.criteria.max_surface_temp_c": {"140"}, "settings.criteria.dew_margin_k": {"1.8"},
-		"settings.criteria.energy_code":           {"ashrae-90.1-2016"},
-		"settings.economics.energy_price_per_kwh": {"0.04"}, "settings.economics.discount_rate": {"5"},
-		"settings.fittings.elbow_m": {"2"}, "settings.fittings.valve_m": {"5"},
+		"settings.criteria.energy_code":            {"ashrae-90.1-2016"},
+		"settings.economics.heating.price_per_kwh": {"0.04"}, "settings.economics.discount_rate": {"5"},
+		"settings.economics.cooling.price_per_kwh": {"0.15"}, "settings.economics.cooling.cop": {"3.2"},
+		"settings.economics.currency": {"eur"},
+		"settings.fittings.elbow_m":   {"2"}, "settings.fittings.valve_m": {"5"},
 	}
 }
 
@@ -66,14 +68,16 @@ func TestProjectPagesCreateEdit(t *testing.T) {
 	bad.Set("name", " ")
 	bad.Set("settings.indoor.ambient_temp_c", "seventy")
 	bad.Set("settings.outdoor.wind_m_s", "99 mph")
-	bad.Set("settings.economics.efficiency", "150")
+	bad.Set("settings.economics.heating.efficiency", "150")
+	bad.Set("settings.economics.currency", "euro")
 	rec := ptPost(t, h, "/projects", bad, nil)
 	body := rec.Body.String()
 	if rec.Code != http.StatusUnprocessableEntity {
 		t.Fatalf("invalid project form = %d, want 422", rec.Code)
 	}
 	for _, want := range []string{`data-testid="err-name"`, `data-testid="err-settings.indoor.ambient_temp_c"`,
-		`data-testid="err-settings.outdoor.wind_m_s"`, `data-testid="err-settings.economics.efficiency"`,
+		`data-testid="err-settings.outdoor.wind_m_s"`, `data-testid="err-settings.economics.heating.efficiency"`,
+		`data-testid="err-settings.economics.currency"`,
 		`value="seventy"`, `value="99 mph"`, `value="Test client"`} {
 		if !strings.Contains(body, want) {
 			t.Errorf("invalid project form lacks %s", want)
@@ -110,6 +114,10 @@ func TestProjectPagesCreateEdit(t *testing.T) {
 		if d := c.got - c.want; d > 1e-6 || d < -1e-6 {
 			t.Errorf("%s: stored %.9g, want %.9g", c.name, c.got, c.want)
 		}
+	}
+	if e := set.Economics; e == nil || e.Currency != "EUR" || e.Heating == nil || *e.Heating.PricePerKWh != 0.04 ||
+		e.Cooling == nil || *e.Cooling.COP != 3.2 || e.Heating.Efficiency != nil {
+		t.Errorf("stored economics %+v: want EUR, heating 0.04 (default efficiency), cooling COP 3.2", set.Economics)
 	}
 	if p.Units != "us" || p.Client != "Test client" || set.Criteria.EnergyCode != "ashrae-90.1-2016" {
 		t.Errorf("stored project %+v, energy code %q", p, set.Criteria.EnergyCode)

@@ -176,10 +176,19 @@ func BuildSheet(p Project, l Line, r Resolver, date time.Time) Sheet {
 		inp.add("Energy code table", c.EnergyCode)
 	}
 	if e := in.Economics; e != nil {
-		inp.add("Energy price (per kWh bought)", num(e.EnergyPricePerKWh, ""))
-		inp.add("Heating efficiency", num(e.Efficiency, ""))
-		inp.add("Cooling COP", num(e.COP, ""))
-		inp.add("Hours per year", num(e.HoursPerYear, " h"))
+		cur := " " + e.CurrencyCode()
+		if h := e.Heating; h != nil {
+			inp.add("Heating: price per kWh bought", num(h.PricePerKWh, cur))
+			inp.add("Heating: plant efficiency", num(h.Efficiency, ""))
+			inp.add("Heating: hours per year", num(h.HoursPerYear, " h"))
+			inp.add("Heating: CO2 per kWh bought", num(h.CO2KgPerKWh, " kg"))
+		}
+		if k := e.Cooling; k != nil {
+			inp.add("Cooling: price per kWh of electricity", num(k.PricePerKWh, cur))
+			inp.add("Cooling: COP", num(k.COP, ""))
+			inp.add("Cooling: hours per year", num(k.HoursPerYear, " h"))
+			inp.add("Cooling: CO2 per kWh of electricity", num(k.CO2KgPerKWh, " kg"))
+		}
 		inp.add("Discount rate", num(e.DiscountRate, ""))
 		inp.add("Escalation rate", num(e.EscalationRate, ""))
 	}

@@ -1106,23 +1106,55 @@ func ProjectForm(v ProjectFormView) templ.Component {
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 92, "</fieldset><fieldset><legend>Economics</legend><p class=\"muted small\">Leave the energy price blank to skip the economics.</p>")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 92, "</fieldset><fieldset><legend>Economics</legend><p class=\"muted small\">Hot lines lose heat bought as fuel or heat (the heating basis); cold lines gain heat removed by electric cooling (the cooling basis). Each line is priced on its own basis only: a blank price leaves those lines unpriced, and other blank values take the default shown. Leave both prices blank to skip the economics.</p>")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.energy_price_per_kwh", "Energy price", "per kWh", "Price of the energy bought (fuel or electricity).").Render(ctx, templ_7745c5c3_Buffer)
+			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.currency", "Currency", "ISO 4217", "Three letters, such as USD, EUR, GBP; shown on every money figure. Default USD.").Render(ctx, templ_7745c5c3_Buffer)
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.efficiency", "Heating efficiency", "%", "Default 80 %.").Render(ctx, templ_7745c5c3_Buffer)
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 93, "<fieldset data-testid=\"basis-heating\"><legend>Heating basis (hot lines)</legend>")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.cop", "Cooling COP", "", "Default 3.0.").Render(ctx, templ_7745c5c3_Buffer)
+			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.heating.price_per_kwh", "Price", "per kWh bought", "Fuel or heat bought, per kWh.").Render(ctx, templ_7745c5c3_Buffer)
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.hours_per_year", "Operating hours", "h/yr", "Default 8760.").Render(ctx, templ_7745c5c3_Buffer)
+			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.heating.efficiency", "Plant efficiency", "%", "Heat delivered per energy bought. Default 80 %.").Render(ctx, templ_7745c5c3_Buffer)
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.heating.hours_per_year", "Operating hours", "h/yr", "Default 8760.").Render(ctx, templ_7745c5c3_Buffer)
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.heating.co2_kg_per_kwh", "CO2", "kg per kWh bought", "Default 0 (CO2 not counted).").Render(ctx, templ_7745c5c3_Buffer)
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 94, "</fieldset><fieldset data-testid=\"basis-cooling\"><legend>Cooling basis (cold lines)</legend>")
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.cooling.price_per_kwh", "Price", "per kWh of electricity", "Electricity for the chillers, per kWh.").Render(ctx, templ_7745c5c3_Buffer)
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.cooling.cop", "COP", "", "Heat removed per electricity bought. Default 3.0.").Render(ctx, templ_7745c5c3_Buffer)
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.cooling.hours_per_year", "Operating hours", "h/yr", "Default 8760.").Render(ctx, templ_7745c5c3_Buffer)
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.cooling.co2_kg_per_kwh", "CO2", "kg per kWh of electricity", "Default 0 (CO2 not counted).").Render(ctx, templ_7745c5c3_Buffer)
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 95, "</fieldset>")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
@@ -1138,11 +1170,7 @@ func ProjectForm(v ProjectFormView) templ.Component {
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = entryText(v.EntryForm, "settings.economics.co2_kg_per_kwh", "CO2", "kg/kWh", "On the energy bought.").Render(ctx, templ_7745c5c3_Buffer)
-			if templ_7745c5c3_Err != nil {
-				return templ_7745c5c3_Err
-			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 93, "</fieldset><fieldset><legend>Fitting allowances</legend><p class=\"muted small\">Equivalent insulated length of one fitting, added to each run's length.</p>")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 96, "</fieldset><fieldset><legend>Fitting allowances</legend><p class=\"muted small\">Equivalent insulated length of one fitting, added to each run's length.</p>")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
@@ -1166,20 +1194,20 @@ func ProjectForm(v ProjectFormView) templ.Component {
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 94, "</fieldset><p class=\"actions\"><button type=\"submit\" data-testid=\"save-project\">Save project</button> <a class=\"button secondary\" href=\"")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 97, "</fieldset><p class=\"actions\"><button type=\"submit\" data-testid=\"save-project\">Save project</button> <a class=\"button secondary\" href=\"")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
 			var templ_7745c5c3_Var56 string
 			templ_7745c5c3_Var56, templ_7745c5c3_Err = templruntime.NewAttributeExpression(templ.SafeURL(v.Cancel)).ResolveURL(ctx)
 			if templ_7745c5c3_Err != nil {
-				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/project_form.templ`, Line: 234, Col: 62}
+				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/project_form.templ`, Line: 244, Col: 62}
 			}
 			_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ_7745c5c3_Var56)
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 95, "\">Cancel</a></p></form>")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 98, "\">Cancel</a></p></form>")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
