@@ -9,7 +9,6 @@ import (
 	"net/url"
 	"strconv"
 	"strings"
-	"sync"
 	"time"
 	"unicode/utf8"
 
@@ -28,7 +27,7 @@ import (
 // AuthConfig.SecureCookies is set), kept in PostgreSQL only as its SHA-256 and renewed
 // at every login. Viewers may look but every unsafe method (anything but GET, HEAD and
 // OPTIONS, save POST /logout) is refused with 403. Failed logins are limited per client
-// IP and per user name, in this instance's memory.
+// IP and per user name, in PostgreSQL (store/logins.go), shared by every instance.
 
 // AuthConfig is the account side of Config.
 type AuthConfig struct {
@@ -47,13 +46,17 @@ const DefaultSessionTTL = 7 * 24 * time.Hour
 // SessionCookie is the name of the session cookie.
 const SessionCookie = "lagwright_session"
 
-// Login limits: after loginMaxFailures failures within loginWindow, from one IP or for
-// one name, further attempts get 429 with Retry-After until the oldest failure ages out.
+// Login limits: after loginMaxFailures attempts within loginWindow, from one IP or for
+// one name, further attempts get 429 with Retry-After until the oldest ages out. Each
+// attempt is reserved in PostgreSQL before the password is checked (so parallel
+// guesses cannot pass together, and every instance on the database counts the same
+// attempts); a successful sign-in takes its own attempt back.
 const (
 	loginMaxFailures = 5
 	loginWindow      = 15 * time.Minute
-	loginMaxKeys     = 10000 // bound on the limiter's memory
 )
+
+var loginLimit = store.LoginLimit{Max: loginMaxFailures, Window: loginWindow}
 
 type userKey struct{}
 
@@ -153,20 +156,24 @@ func (s *Server) login(w http.ResponseWriter, r *http.Request) {
 	v := web.LoginView{Assets: s.assets.urls, Name: name, Next: localPath(r.PostForm.Get("next"))}
 	keys := loginKeys(r, name)
 	now := time.Now()
-	if wait := s.logins.retryAfter(now, keys...); wait > 0 {
-		mins := int(wait.Round(time.Minute) / time.Minute)
+	attempt, wait, err := s.store.ReserveLogin(r.Context(), loginLimit, keys...)
+	if err != nil {
+		s.fail(w, r, err)
+		return
+	}
+	if wait > 0 {
+		mins := max(int(wait.Round(time.Minute)/time.Minute), 1)
 		w.Header().Set("Retry-After", strconv.Itoa(int(wait.Seconds()+0.999)))
-		v.Message = fmt.Sprintf("Too many failed sign-ins. Try again in %d minute%s.", max(mins, 1), map[bool]string{true: "", false: "s"}[max(mins, 1) == 1])
+		v.Message = fmt.Sprintf("Too many failed sign-ins. Try again in %d minute%s.", mins, map[bool]string{true: "", false: "s"}[mins == 1])
 		s.renderLogin(w, r, v, http.StatusTooManyRequests)
 		return
 	}
 	var u store.User
-	err := store.ErrBadLogin
+	err = store.ErrBadLogin
 	if name != "" && password != "" && len(name) <= 256 && len(password) <= 1024 {
 		u, err = s.store.Authenticate(r.Context(), name, password)
 	}
 	if errors.Is(err, store.ErrBadLogin) {
-		s.logins.fail(now, keys...)
 		v.Message = "Wrong name or password."
 		s.renderLogin(w, r, v, http.StatusUnauthorized)
 		return
@@ -175,7 +182,11 @@ func (s *Server) login(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	s.logins.reset(keys[1]) // the name's count; the IP's stays
+	// The attempt was no failure; the name's count restarts, the IP's stays.
+	if err := s.store.LoginSucceeded(r.Context(), attempt, keys[1]); err != nil {
+		s.fail(w, r, err)
+		return
+	}
 	// A new token at every login (no session fixation); the old one, if any, ends.
 	if c, err := r.Cookie(SessionCookie); err == nil && c.Value != "" {
 		_ = s.store.DeleteSession(r.Context(), c.Value)
@@ -246,76 +257,6 @@ func loginKeys(r *http.Request, name string) []string {
 		name = name[:64]
 	}
 	return []string{"ip:" + ip, "user:" + name}
-}
-
-// loginLimiter counts failed logins per key in a sliding window. Its zero value is
-// ready. It lives in this process only: with several instances each one counts its
-// own failures.
-type loginLimiter struct {
-	mu    sync.Mutex
-	fails map[string][]time.Time // failures within the window, oldest first
-}
-
-func (l *loginLimiter) recent(key string, now time.Time) []time.Time {
-	ts := l.fails[key]
-	i := 0
-	for i < len(ts) && now.Sub(ts[i]) >= loginWindow {
-		i++
-	}
-	if i == len(ts) {
-		delete(l.fails, key)
-		return nil
-	}
-	ts = ts[i:]
-	l.fails[key] = ts
-	return ts
-}
-
-// retryAfter is how long until another attempt is allowed, 0 when it is now.
-func (l *loginLimiter) retryAfter(now time.Time, keys ...string) time.Duration {
-	l.mu.Lock()
-	defer l.mu.Unlock()
-	var wait time.Duration
-	for _, k := range keys {
-		if ts := l.recent(k, now); len(ts) >= loginMaxFailures {
-			wait = max(wait, ts[len(ts)-loginMaxFailures].Add(loginWindow).Sub(now))
-		}
-	}
-	return wait
-}
-
-// fail records a failed attempt under every key.
-func (l *loginLimiter) fail(now time.Time, keys ...string) {
-	l.mu.Lock()
-	defer l.mu.Unlock()
-	if l.fails == nil {
-		l.fails = map[string][]time.Time{}
-	}
-	if len(l.fails) >= loginMaxKeys {
-		for k := range l.fails {
-			l.recent(k, now) // drops keys with nothing left in the window
-		}
-		for k := range l.fails { // still full: forget arbitrary keys
-			if len(l.fails) < loginMaxKeys {
-				break
-			}
-			delete(l.fails, k)
-		}
-	}
-	for _, k := range keys {
-		ts := append(l.recent(k, now), now)
-		if len(ts) > loginMaxFailures {
-			ts = ts[len(ts)-loginMaxFailures:]
-		}
-		l.fails[k] = ts
-	}
-}
-
-// reset forgets a key's failures (after a successful login).
-func (l *loginLimiter) reset(key string) {
-	l.mu.Lock()
-	defer l.mu.Unlock()
-	delete(l.fails, key)
 }
 
 // formMemory is how much of a multipart form is held in memory; the rest of an upload

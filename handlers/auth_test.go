@@ -9,6 +9,7 @@ import (
 	"net/url"
 	"strconv"
 	"strings"
+	"sync"
 	"testing"
 	"time"
 
@@ -257,38 +258,28 @@ func TestLoginRateLimit(t *testing.T) {
 	})
 }
 
-func TestLoginLimiterWindow(t *testing.T) {
-	var l loginLimiter
-	t0 := time.Date(2026, 1, 1, 0, 0, 0, 0, time.UTC)
-	for i := range loginMaxFailures {
-		if w := l.retryAfter(t0.Add(time.Duration(i)*time.Minute), "k"); w != 0 {
-			t.Fatalf("blocked after %d failures", i)
-		}
-		l.fail(t0.Add(time.Duration(i)*time.Minute), "k")
+// TestLoginLimitParallelGuesses: a burst of simultaneous wrong passwords must not
+// all pass the limit (each attempt is reserved before the slow password check), and a
+// right password sent in the burst's wake is refused too.
+func TestLoginLimitParallelGuesses(t *testing.T) {
+	_, h, _ := authServer(t)
+	const guesses = 40
+	codes := make(chan int, guesses)
+	var wg sync.WaitGroup
+	for range guesses {
+		wg.Go(func() { codes <- loginAs(t, h, "192.0.2.40:1", "ana", "wrong password", "", nil).Code })
 	}
-	// Five failures at minutes 0…4: blocked until minute 15 (the oldest ages out).
-	for _, tc := range []struct {
-		at   time.Duration
-		want time.Duration
-	}{
-		{5 * time.Minute, 10 * time.Minute},
-		{14 * time.Minute, time.Minute},
-		{15 * time.Minute, 0},
-	} {
-		if w := l.retryAfter(t0.Add(tc.at), "k"); w != tc.want {
-			t.Errorf("retryAfter at +%v = %v, want %v", tc.at, w, tc.want)
-		}
+	wg.Wait()
+	close(codes)
+	count := map[int]int{}
+	for c := range codes {
+		count[c]++
 	}
-	l.reset("k")
-	if w := l.retryAfter(t0.Add(5*time.Minute), "k"); w != 0 {
-		t.Errorf("after reset: %v", w)
+	if count[http.StatusUnauthorized] > loginMaxFailures || count[http.StatusTooManyRequests] < guesses-loginMaxFailures {
+		t.Errorf("%d parallel wrong passwords: %v; want at most %d × 401, the rest 429", guesses, count, loginMaxFailures)
 	}
-	// Memory stays bounded.
-	for i := range loginMaxKeys + 50 {
-		l.fail(t0, "ip:"+strconv.Itoa(i))
-	}
-	if n := len(l.fails); n > loginMaxKeys {
-		t.Errorf("limiter holds %d keys, bound %d", n, loginMaxKeys)
+	if rec := loginAs(t, h, "192.0.2.40:1", "ana", "correct horse 1", "", nil); rec.Code != http.StatusTooManyRequests {
+		t.Errorf("right password after the burst = %d, want 429", rec.Code)
 	}
 }
 

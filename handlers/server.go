@@ -46,8 +46,6 @@ type Server struct {
 	// tableCache keeps rendered project line tables under keys read from the
 	// database, so repeated views of an unchanged project skip decoding and rendering.
 	tableCache *tableCache
-	// logins counts failed sign-ins (auth.go).
-	logins loginLimiter
 }
 
 // New builds a Server.
