@@ -205,7 +205,19 @@ func lineCriterionLabel(k string) string {
 	return k
 }
 
-// sortRows sorts by a column key; "-key" sorts descending. Blank values go last either way;
+// lineSortKey is the sort asked for when it names a column ("key" or "-key"), else ""
+// (the list order): only known keys reach the table cache's key, so junk values
+// cannot fill it with copies of one table.
+func lineSortKey(param string) string {
+	for _, c := range lineColumns {
+		if param == c.key || param == "-"+c.key {
+			return param
+		}
+	}
+	return ""
+}
+
+// sortLineRows sorts by a column key; "-key" sorts descending. Blank values go last either way;
 // ties keep the list order.
 func sortLineRows(rows []listRow, key string) (string, bool) {
 	desc := strings.HasPrefix(key, "-")
@@ -301,7 +313,7 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	sortParam := r.URL.Query().Get("sort")
+	sortParam := lineSortKey(r.URL.Query().Get("sort"))
 	key := newTableKey(p.ID, p.Version, p.Units, sortParam, fp)
 	head := web.ProjectPageView{
 		Assets: s.assets.urls, ID: p.ID, Name: p.Name, Client: p.Client, Site: p.Site,

@@ -12,8 +12,9 @@ import (
 	"lagwright/results"
 )
 
-// tableCacheSize bounds each server's table cache (a 500-line table is ~0.6 MB).
-const tableCacheSize = 64
+// tableCacheBytes bounds the rendered HTML each server's table cache holds (a
+// 500-line table is ~0.6 MB, a 10,000-line one ~30 MB).
+const tableCacheBytes = 96 << 20
 
 // tableKey names one rendered line-list table: the project and its version (its
 // settings and units), the sort, and store.ListFingerprint (every line's version,
@@ -36,16 +37,18 @@ type tableEntry struct {
 
 // tableCache keeps rendered line-list tables (the status summary, the table and its
 // totals: everything of the project page built from the lines, nothing from the
-// user), least recently used first out. Safe for concurrent use.
+// user), least recently used first out, within maxBytes of HTML. Safe for concurrent
+// use.
 type tableCache struct {
-	mu    sync.Mutex
-	max   int
-	order *list.List // of *tableEntry, most recent at the front
-	byKey map[tableKey]*list.Element
+	mu       sync.Mutex
+	maxBytes int
+	bytes    int        // HTML held
+	order    *list.List // of *tableEntry, most recent at the front
+	byKey    map[tableKey]*list.Element
 }
 
-func newTableCache(max int) *tableCache {
-	return &tableCache{max: max, order: list.New(), byKey: map[tableKey]*list.Element{}}
+func newTableCache(maxBytes int) *tableCache {
+	return &tableCache{maxBytes: maxBytes, order: list.New(), byKey: map[tableKey]*list.Element{}}
 }
 
 func (c *tableCache) get(k tableKey) (*tableEntry, bool) {
@@ -59,20 +62,36 @@ func (c *tableCache) get(k tableKey) (*tableEntry, bool) {
 	return e.Value.(*tableEntry), true
 }
 
+// put keeps t, dropping the least recently used tables while the cache holds more
+// than its bound. A table larger than a quarter of the bound is not kept at all.
 func (c *tableCache) put(t *tableEntry) {
+	if len(t.html) > c.maxBytes/4 {
+		return
+	}
 	c.mu.Lock()
 	defer c.mu.Unlock()
 	if e, ok := c.byKey[t.key]; ok {
+		c.bytes -= len(e.Value.(*tableEntry).html)
 		e.Value = t
 		c.order.MoveToFront(e)
-		return
+	} else {
+		c.byKey[t.key] = c.order.PushFront(t)
 	}
-	c.byKey[t.key] = c.order.PushFront(t)
-	for c.order.Len() > c.max {
+	c.bytes += len(t.html)
+	for c.bytes > c.maxBytes {
 		old := c.order.Back()
 		c.order.Remove(old)
-		delete(c.byKey, old.Value.(*tableEntry).key)
+		oe := old.Value.(*tableEntry)
+		delete(c.byKey, oe.key)
+		c.bytes -= len(oe.html)
 	}
+}
+
+// held is the HTML the cache holds, in bytes, and its number of tables.
+func (c *tableCache) held() (bytes, tables int) {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	return c.bytes, c.order.Len()
 }
 
 func (s *Server) tables() *tableCache { return s.tableCache }

@@ -173,26 +173,67 @@ func TestProjectTableCache(t *testing.T) {
 	}
 }
 
-// TestTableCacheBound: the cache keeps at most its size, dropping the least recently
-// used entry first.
+// TestTableCacheBound: the cache keeps at most its size in bytes of HTML, dropping
+// the least recently used entry first, and refuses a table too large for it.
 func TestTableCacheBound(t *testing.T) {
-	c := newTableCache(2)
+	c := newTableCache(4000)
 	k := func(i int) tableKey { return newTableKey(int64(i), 1, "si", "", "fp") }
-	c.put(&tableEntry{key: k(1)})
-	c.put(&tableEntry{key: k(2)})
+	html := make([]byte, 1000)
+	for i := 1; i <= 4; i++ {
+		c.put(&tableEntry{key: k(i), html: html})
+	}
 	if _, ok := c.get(k(1)); !ok { // 1 is now the most recent
 		t.Fatal("entry 1 missing")
 	}
-	c.put(&tableEntry{key: k(3)})
+	c.put(&tableEntry{key: k(5), html: html})
 	if _, ok := c.get(k(2)); ok {
 		t.Error("entry 2 (least recently used) kept beyond the bound")
 	}
-	for _, i := range []int{1, 3} {
+	for _, i := range []int{1, 3, 4, 5} {
 		if _, ok := c.get(k(i)); !ok {
 			t.Errorf("entry %d dropped", i)
 		}
 	}
-	if n := c.order.Len(); n != 2 || len(c.byKey) != 2 {
-		t.Errorf("%d entries, want 2", n)
+	c.put(&tableEntry{key: k(6), html: make([]byte, 1001)}) // over a quarter of the bound
+	if _, ok := c.get(k(6)); ok {
+		t.Error("a table over a quarter of the bound was kept")
+	}
+	if b, n := c.held(); b != 4000 || n != 4 || len(c.byKey) != 4 {
+		t.Errorf("holds %d bytes in %d tables, want 4000 in 4", b, n)
+	}
+}
+
+// TestProjectSortJunk: ?sort= values that name no column show the list order and
+// share one cached table, so a viewer cannot grow the cache with junk values.
+func TestProjectSortJunk(t *testing.T) {
+	st := storetest.NewDB(t)
+	s, _ := newServer(t, st)
+	h := s.Routes()
+	p := ptProject(t, st, "si")
+	base := fmt.Sprintf("/projects/%d", p.ID)
+	if code, m := ptJSON(t, h, "POST", "/api/v1"+base+"/lines", ptSteamLine); code != 201 {
+		t.Fatalf("create line = %d %v", code, m)
+	}
+	for range 3 { // until the lines' results and freshness keys are saved
+		do(t, h, "GET", base, nil, nil)
+	}
+	_, n0 := s.tables().held()
+	var first string
+	for i := range 20 {
+		rec := do(t, h, "GET", fmt.Sprintf("%s?sort=junk%d", base, i), nil, nil)
+		if rec.Code != http.StatusOK {
+			t.Fatalf("sort=junk%d = %d", i, rec.Code)
+		}
+		if i == 0 {
+			first = rec.Body.String()
+		} else if rec.Body.String() != first {
+			t.Fatalf("sort=junk%d renders another page than sort=junk0", i)
+		}
+	}
+	if _, n := s.tables().held(); n != n0 {
+		t.Errorf("20 junk sort values took the cache from %d tables to %d", n0, n)
+	}
+	if rec := do(t, h, "GET", base+"?sort=-tag", nil, nil); rec.Code != http.StatusOK || !strings.Contains(rec.Body.String(), `aria-sort="descending"`) {
+		t.Errorf("a known sort key is not applied (%d)", rec.Code)
 	}
 }

@@ -63,7 +63,7 @@ func New(st *store.Store, log *slog.Logger, cfg Config) (*Server, error) {
 			return nil, fmt.Errorf("handlers: trusted origin: %w", err)
 		}
 	}
-	s := &Server{store: st, results: results.New(st), log: log, cfg: cfg, assets: a, cop: cop, tableCache: newTableCache(tableCacheSize)}
+	s := &Server{store: st, results: results.New(st), log: log, cfg: cfg, assets: a, cop: cop, tableCache: newTableCache(tableCacheBytes)}
 	cop.SetDenyHandler(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, &Error{Code: CodeForbidden, Message: "Cross-origin request refused."})
 	}))
