@@ -82,7 +82,11 @@ func classify(err error) *Error {
 		return Invalid(fields...)
 	}
 	var pgErr *pgconn.PgError
+	var dupTags *store.DuplicateTagsError
 	switch {
+	case errors.As(err, &dupTags):
+		return &Error{Code: CodeConflict, Message: "These tags were added to the project meanwhile (by another import or an edit): " +
+			strings.Join(dupTags.Tags, ", ") + ".", Err: err}
 	case errors.Is(err, store.ErrNotFound):
 		return &Error{Code: CodeNotFound, Message: "Not found.", Err: err}
 	case errors.Is(err, store.ErrDuplicateTag):

@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"strings"
 	"time"
 
 	"github.com/jackc/pgx/v5"
@@ -81,12 +82,25 @@ func (s *Store) Line(ctx context.Context, projectID, lineID int64) (Line, error)
 	return l, nil
 }
 
+// lockLinePositions takes the project's line-position lock until the transaction
+// ends: every writer that appends lines holds it, so two of them never hand out the
+// same positions (an import beside single additions, two imports at once).
+func lockLinePositions(ctx context.Context, tx pgx.Tx, projectID int64) error {
+	if _, err := tx.Exec(ctx, `SELECT pg_advisory_xact_lock(hashtextextended('line-positions', $1))`, projectID); err != nil {
+		return fmt.Errorf("lock line positions: %w", err)
+	}
+	return nil
+}
+
 // CreateLine adds a line at the end of its project's list. materials are the slugs it
 // uses (kept so a material in use cannot be deleted).
 func (s *Store) CreateLine(ctx context.Context, l Line, materials []string) (Line, error) {
 	defaults(&l)
 	var out Line
 	err := pgx.BeginFunc(ctx, s.pool, func(tx pgx.Tx) error {
+		if err := lockLinePositions(ctx, tx, l.ProjectID); err != nil {
+			return err
+		}
 		rows, _ := tx.Query(ctx, `
 			INSERT INTO lines (project_id, position, tag, service, location, exposure, input, fittings, notes, result, result_hash)
 			VALUES ($1, (SELECT coalesce(max(position), 0) + 1 FROM lines WHERE project_id = $1),
@@ -200,28 +214,56 @@ const bulkResults = 64
 // the material slugs it uses.
 type LineMaterials [][]string
 
+// DuplicateTagsError is ErrDuplicateTag naming the tags (at most a few) that a
+// project already has, found by CreateLines: they were added since the list was
+// checked (by another import or an edit).
+type DuplicateTagsError struct{ Tags []string }
+
+func (e *DuplicateTagsError) Error() string {
+	return fmt.Sprintf("tags already used in this project: %s", strings.Join(e.Tags, ", "))
+}
+
+func (e *DuplicateTagsError) Unwrap() error { return ErrDuplicateTag }
+
 // CreateLines adds many lines to a project in one transaction (all or nothing), after
-// the existing ones, by COPY. It returns how many were created.
+// the existing ones, by COPY. Ids come from the lines' sequence and positions are
+// counted under the project's position lock, so imports and single additions may run
+// at once. Tags the project has already give a *DuplicateTagsError. It returns how
+// many lines were created.
 func (s *Store) CreateLines(ctx context.Context, projectID int64, lines []Line, materials LineMaterials) (int, error) {
+	tags := make([]string, len(lines))
+	for i, l := range lines {
+		tags[i] = l.Tag
+	}
 	err := pgx.BeginFunc(ctx, s.pool, func(tx pgx.Tx) error {
+		if err := lockLinePositions(ctx, tx, projectID); err != nil {
+			return err
+		}
+		rows, _ := tx.Query(ctx, `SELECT tag FROM lines WHERE project_id = $1 AND tag = ANY($2) ORDER BY position LIMIT 5`, projectID, tags)
+		taken, err := pgx.CollectRows(rows, pgx.RowTo[string])
+		if err != nil {
+			return err
+		}
+		if len(taken) > 0 {
+			return &DuplicateTagsError{Tags: taken}
+		}
 		var start int
 		if err := tx.QueryRow(ctx, `SELECT coalesce(max(position), 0) FROM lines WHERE project_id = $1`, projectID).Scan(&start); err != nil {
 			return err
 		}
-		var firstID int64
-		if err := tx.QueryRow(ctx, `SELECT nextval(pg_get_serial_sequence('lines', 'id'))`).Scan(&firstID); err != nil {
+		// Ids drawn from the sequence up front, so line_materials can be copied without
+		// a round trip per line; other writers draw theirs meanwhile without clashing.
+		rows, _ = tx.Query(ctx, `SELECT nextval(pg_get_serial_sequence('lines', 'id')) FROM generate_series(1, $1)`, len(lines))
+		ids, err := pgx.CollectRows(rows, pgx.RowTo[int64])
+		if err != nil {
 			return err
 		}
-		// Reserve ids so line_materials can be copied without a round trip per line.
-		if _, err := tx.Exec(ctx, `SELECT setval(pg_get_serial_sequence('lines', 'id'), $1)`, firstID+int64(len(lines))); err != nil {
-			return err
-		}
-		_, err := tx.CopyFrom(ctx, pgx.Identifier{"lines"},
+		_, err = tx.CopyFrom(ctx, pgx.Identifier{"lines"},
 			[]string{"id", "project_id", "position", "tag", "service", "location", "exposure", "input", "fittings", "notes", "result", "result_hash"},
 			pgx.CopyFromSlice(len(lines), func(i int) ([]any, error) {
 				l := lines[i]
 				defaults(&l)
-				return []any{firstID + int64(i), projectID, start + i + 1, l.Tag, l.Service, l.Location, l.Exposure,
+				return []any{ids[i], projectID, start + i + 1, l.Tag, l.Service, l.Location, l.Exposure,
 					string(l.Input), string(l.Fittings), l.Notes, nullString(l.Result), l.ResultHash}, nil
 			}))
 		if err != nil {
@@ -230,12 +272,16 @@ func (s *Store) CreateLines(ctx context.Context, projectID int64, lines []Line, 
 		var pairs [][]any
 		for i, slugs := range materials {
 			for _, m := range slugs {
-				pairs = append(pairs, []any{firstID + int64(i), m})
+				pairs = append(pairs, []any{ids[i], m})
 			}
 		}
 		_, err = tx.CopyFrom(ctx, pgx.Identifier{"line_materials"}, []string{"line_id", "material_slug"}, pgx.CopyFromRows(pairs))
 		return err
 	})
+	var dup *DuplicateTagsError
+	if errors.As(err, &dup) {
+		return 0, fmt.Errorf("store: import lines: %w", dup)
+	}
 	if err != nil {
 		return 0, lineError("import lines", Line{ProjectID: projectID}, err)
 	}
@@ -267,7 +313,10 @@ func lineError(op string, l Line, err error) error {
 	if errors.As(err, &pg) {
 		switch pg.Code {
 		case "23505":
-			return fmt.Errorf("store: %s: %w", op, ErrDuplicateTag)
+			if pg.ConstraintName == "lines_project_id_tag_key" {
+				return fmt.Errorf("store: %s: %w", op, ErrDuplicateTag)
+			}
+			return fmt.Errorf("store: %s: %s already exists: %w", op, pg.ConstraintName, err)
 		case "23503":
 			if pg.ConstraintName == "lines_project_id_fkey" {
 				return fmt.Errorf("store: %s: project %d: %w", op, l.ProjectID, ErrNotFound)
