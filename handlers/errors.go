@@ -108,7 +108,8 @@ func classify(err error) *Error {
 		return &Error{Code: CodeInvalid, Message: "The input holds a value the database cannot store.",
 			Fields: []FieldError{{Message: "a value is out of range or holds characters that cannot be stored"}}, Err: err}
 	case errors.Is(err, context.DeadlineExceeded):
-		return &Error{Code: CodeUnavailable, Message: "The request took too long; try again shortly.", Err: err}
+		// the store's statement or acquire deadline passed (store/timeouts.go)
+		return &Error{Code: CodeUnavailable, Message: "The database did not answer in time; try again shortly.", Err: err}
 	}
 	var tooLarge *http.MaxBytesError
 	if errors.As(err, &tooLarge) {

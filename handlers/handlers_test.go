@@ -195,7 +195,7 @@ func TestFailMapping(t *testing.T) {
 		{"unique", fmt.Errorf("insert: %w", &pgconn.PgError{Code: "23505", Message: "duplicate key value violates unique constraint \"lines_project_id_tag_key\""}), 409, "That name or tag is already taken.", false},
 		{"in use", &pgconn.PgError{Code: "23503"}, 409, "It is in use elsewhere, or refers to something missing.", false},
 		{"statement timeout", &pgconn.PgError{Code: "57014"}, 503, "The database is busy or unavailable; try again shortly.", true},
-		{"deadline", context.DeadlineExceeded, 503, "The request took too long; try again shortly.", true},
+		{"deadline", context.DeadlineExceeded, 503, "The database did not answer in time; try again shortly.", true},
 		{"invalid", Invalid(FieldError{"name", "must not be empty"}), 422, "must not be empty", false},
 		{"internal", errors.New("secret detail xyzzy"), 500, "Something went wrong on our side; it has been logged.", true},
 	} {

@@ -17,18 +17,38 @@ type Store struct {
 	pool *pgxpool.Pool
 }
 
-// Pool limits and the server-side statement timeout. A DSN may override the pool
-// limits with pool_max_conns and friends, and the timeout with
-// options=-c%20statement_timeout=….
+// Pool limits and timeouts. A DSN may override the pool limits with pool_max_conns
+// and friends; the statement timeout comes from Options, else from the DSN
+// (options=-c%20statement_timeout=…), else DefaultStatementTimeout.
 const (
-	defaultMaxConns         = 16
-	defaultStatementTimeout = 30 * time.Second
-	defaultConnectTimeout   = 5 * time.Second
+	defaultMaxConns       = 16
+	defaultConnectTimeout = 5 * time.Second
+	// DefaultStatementTimeout is the server's statement_timeout for the app's
+	// connections unless configured: long enough for a whole-project recompute's
+	// writes, short enough that a stuck statement frees its connection.
+	DefaultStatementTimeout = 30 * time.Second
+	// DefaultAcquireTimeout is how long a request waits for a pooled connection (or
+	// a new one) before it is answered 503.
+	DefaultAcquireTimeout = 5 * time.Second
 )
 
-// Open connects to the database at dsn (a postgres:// URL or key=value string) and
-// checks that it answers.
+// Options are the settings of Open beyond the DSN.
+type Options struct {
+	// StatementTimeout sets the server's statement_timeout; 0 keeps the DSN's, or
+	// DefaultStatementTimeout when the DSN sets none.
+	StatementTimeout time.Duration
+	// AcquireTimeout bounds the wait for a connection; 0 means DefaultAcquireTimeout.
+	AcquireTimeout time.Duration
+}
+
+// Open connects to the database at dsn (a postgres:// URL or key=value string) with
+// the default Options and checks that it answers.
 func Open(ctx context.Context, dsn string) (*Store, error) {
+	return OpenWith(ctx, dsn, Options{})
+}
+
+// OpenWith is Open with explicit Options.
+func OpenWith(ctx context.Context, dsn string, opt Options) (*Store, error) {
 	cfg, err := pgxpool.ParseConfig(dsn)
 	if err != nil {
 		// The parse error may quote the DSN, password included: do not wrap it.
@@ -44,12 +64,21 @@ func Open(ctx context.Context, dsn string) (*Store, error) {
 		cfg.ConnConfig.ConnectTimeout = defaultConnectTimeout
 	}
 	rp := cfg.ConnConfig.RuntimeParams
-	if _, ok := rp["statement_timeout"]; !ok {
-		rp["statement_timeout"] = fmt.Sprint(defaultStatementTimeout.Milliseconds())
+	_, inParams := rp["statement_timeout"]
+	switch {
+	case opt.StatementTimeout > 0:
+		rp["statement_timeout"] = fmt.Sprint(opt.StatementTimeout.Milliseconds())
+	case !inParams && !strings.Contains(rp["options"], "statement_timeout"):
+		rp["statement_timeout"] = fmt.Sprint(DefaultStatementTimeout.Milliseconds())
 	}
 	if _, ok := rp["application_name"]; !ok {
 		rp["application_name"] = "lagwright"
 	}
+	if opt.AcquireTimeout <= 0 {
+		opt.AcquireTimeout = DefaultAcquireTimeout
+	}
+	tracer := &deadlineTracer{acquire: opt.AcquireTimeout}
+	cfg.ConnConfig.Tracer = tracer
 	pool, err := pgxpool.NewWithConfig(ctx, cfg)
 	if err != nil {
 		return nil, fmt.Errorf("store: %w", err)
@@ -57,11 +86,26 @@ func Open(ctx context.Context, dsn string) (*Store, error) {
 	s := &Store{pool: pool}
 	pctx, cancel := context.WithTimeout(ctx, defaultConnectTimeout+time.Second)
 	defer cancel()
-	if err := s.Ping(pctx); err != nil {
+	// The statement timeout in force (whichever source set it) gives the client's own
+	// deadline per statement; 0 (none) leaves statements without one.
+	var ms int64
+	if err := pool.QueryRow(pctx, `SELECT setting::bigint FROM pg_settings WHERE name = 'statement_timeout'`).Scan(&ms); err != nil {
 		pool.Close()
 		return nil, fmt.Errorf("store: connect to %s: %w", describe(cfg), err)
 	}
+	if ms > 0 {
+		tracer.statement.Store(int64(time.Duration(ms)*time.Millisecond + statementGrace))
+	}
 	return s, nil
+}
+
+// StatementTimeout is the server's statement_timeout on the app's connections.
+func (s *Store) StatementTimeout(ctx context.Context) (time.Duration, error) {
+	var ms int64
+	if err := s.pool.QueryRow(ctx, `SELECT setting::bigint FROM pg_settings WHERE name = 'statement_timeout'`).Scan(&ms); err != nil {
+		return 0, fmt.Errorf("store: statement timeout: %w", err)
+	}
+	return time.Duration(ms) * time.Millisecond, nil
 }
 
 // describe names the server without credentials, for messages.

@@ -24,7 +24,7 @@ const (
 // attached to a running app's cluster.
 func openStore(ctx context.Context, cfg config, log *slog.Logger, attach bool) (*store.Store, func() error, error) {
 	if cfg.DatabaseURL != "" {
-		st, err := store.Open(ctx, cfg.DatabaseURL)
+		st, err := store.OpenWith(ctx, cfg.DatabaseURL, cfg.DB)
 		if err != nil {
 			return nil, nil, err
 		}
@@ -43,7 +43,7 @@ func openStore(ctx context.Context, cfg config, log *slog.Logger, attach bool) (
 		defer cancel()
 		return cl.Stop(sctx)
 	}
-	st, err := store.Open(ctx, cl.DSN("lagwright"))
+	st, err := store.OpenWith(ctx, cl.DSN("lagwright"), cfg.DB)
 	if err != nil {
 		return nil, nil, errors.Join(err, stop())
 	}
