@@ -226,10 +226,12 @@ func (s *Server) logout(w http.ResponseWriter, r *http.Request) {
 	http.Redirect(w, r, "/login?out=1", http.StatusSeeOther)
 }
 
-// badForm maps a form that cannot be parsed: too large (413) or malformed (400 as 422).
+// badForm maps a form that cannot be parsed: too large (413), a body that did not
+// arrive (408/400, the client's side), or malformed (422).
 func badForm(err error) error {
 	var tooLarge *http.MaxBytesError
-	if errors.As(err, &tooLarge) {
+	var bodyErr *bodyReadError
+	if errors.As(err, &tooLarge) || errors.As(err, &bodyErr) {
 		return err
 	}
 	return Invalid(FieldError{Message: "the form could not be read"})

@@ -25,7 +25,7 @@ func (s *Server) compareUseThickness(w http.ResponseWriter, r *http.Request) {
 	if err != nil || !(t > 0 && t <= 600) {
 		problems = append(problems, FieldError{Field: "thickness_mm", Message: "must be a thickness greater than 0 and at most 600 mm"})
 	}
-	version, err := strconv.Atoi(r.PostForm.Get("version"))
+	version, err := parseVersion(r.PostForm.Get("version"))
 	if err != nil {
 		problems = append(problems, FieldError{Field: "version", Message: "is required (the version of the line you saw)"})
 	}

@@ -4,7 +4,6 @@ import (
 	"context"
 	"errors"
 	"net/http"
-	"strconv"
 	"sync"
 
 	"github.com/go-chi/chi/v5"
@@ -56,7 +55,7 @@ type projectScope struct {
 // no such project).
 func (s *Server) withProject(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
-		id, err := strconv.ParseInt(chi.URLParam(r, "id"), 10, 64)
+		id, err := parseID(chi.URLParam(r, "id"))
 		if err != nil || id <= 0 {
 			s.fail(w, r, NotFound("project"))
 			return
@@ -83,7 +82,7 @@ func (s *Server) withProject(next http.Handler) http.Handler {
 func (s *Server) withLine(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		p, _ := projectOf(r)
-		id, err := strconv.ParseInt(chi.URLParam(r, "line"), 10, 64)
+		id, err := parseID(chi.URLParam(r, "line"))
 		if err != nil || id <= 0 {
 			s.fail(w, r, NotFound("line"))
 			return

@@ -3,7 +3,6 @@ package handlers
 import (
 	"net/http"
 	"slices"
-	"strconv"
 
 	"lagwright/analysis"
 	"lagwright/catalog"
@@ -20,7 +19,7 @@ func (s *Server) costsExample(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	version, err := strconv.Atoi(r.PostForm.Get("version"))
+	version, err := parseVersion(r.PostForm.Get("version"))
 	if err != nil {
 		s.fail(w, r, Invalid(FieldError{Field: "version", Message: "is required (the version of the project you saw)"}))
 		return

@@ -112,7 +112,7 @@ func parseCostsForm(r *http.Request, sys units.System, lib *store.Library) (*cos
 	}
 	f := &costsForm{paste: r.PostForm.Get("paste")}
 	var err error
-	if f.version, err = strconv.Atoi(r.PostForm.Get("version")); err != nil {
+	if f.version, err = parseVersion(r.PostForm.Get("version")); err != nil {
 		f.formErrors = append(f.formErrors, "The form lacks the project's version; reload the page.")
 	}
 	n, _ := strconv.Atoi(r.PostForm.Get("rows"))

@@ -30,6 +30,8 @@ const (
 	CodeMethodNotAllowed Code = "method"       // 405
 	CodeUnauthorized     Code = "unauthorized" // 401: not signed in
 	CodeTooManyRequests  Code = "too_many"     // 429: sign-in attempts over the limit
+	CodeBadRequest       Code = "bad_request"  // 400: the body broke off
+	CodeTimeout          Code = "timeout"      // 408: the body came too slowly
 )
 
 // FieldError names one bad input field ("" for the request as a whole).
@@ -83,7 +85,12 @@ func classify(err error) *Error {
 	}
 	var pgErr *pgconn.PgError
 	var dupTags *store.DuplicateTagsError
+	var bodyErr *bodyReadError
 	switch {
+	case errors.As(err, &bodyErr) && bodyErr.timeout():
+		return &Error{Code: CodeTimeout, Message: "The request body arrived too slowly; send it again.", Err: err}
+	case errors.As(err, &bodyErr):
+		return &Error{Code: CodeBadRequest, Message: "The request body could not be read (the connection broke off); send it again.", Err: err}
 	case errors.As(err, &dupTags):
 		return &Error{Code: CodeConflict, Message: "These tags were added to the project meanwhile (by another import or an edit): " +
 			strings.Join(dupTags.Tags, ", ") + ".", Err: err}
@@ -138,6 +145,10 @@ func statusOf(c Code) int {
 		return http.StatusUnauthorized
 	case CodeTooManyRequests:
 		return http.StatusTooManyRequests
+	case CodeBadRequest:
+		return http.StatusBadRequest
+	case CodeTimeout:
+		return http.StatusRequestTimeout
 	}
 	return http.StatusInternalServerError
 }
@@ -181,7 +192,9 @@ func (s *Server) fail(w http.ResponseWriter, r *http.Request, err error) {
 		}
 	}
 	page := web.ErrorPage(web.ErrorView{Assets: s.assets.urls, Status: status, Title: http.StatusText(status), Message: e.Message, Problems: problems})
-	templ.Handler(page, templ.WithStatus(status)).ServeHTTP(w, r)
+	// Rendered even when the request's context has ended (a client whose body broke
+	// off still gets its answer, if it is listening).
+	templ.Handler(page, templ.WithStatus(status)).ServeHTTP(w, r.WithContext(context.WithoutCancel(r.Context())))
 }
 
 // wantsJSON: API routes, and clients that ask for JSON.

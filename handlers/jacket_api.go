@@ -141,8 +141,8 @@ func (s *Server) apiJacketPatch(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	var fe []FieldError
-	if p.Version == nil {
-		fe = append(fe, FieldError{Field: "version", Message: "is required: the version you read"})
+	if msg := versionProblem(p.Version); msg != "" {
+		fe = append(fe, FieldError{Field: "version", Message: msg})
 	} else {
 		j.Version = *p.Version
 	}

@@ -50,7 +50,7 @@ func jacketFormOf(j store.Jacket) *jacketForm {
 func (f *jacketForm) jacket() store.Jacket {
 	j := store.Jacket{Jacket: catalog.Jacket{Slug: f.values["slug"], Name: f.values["name"], Use: f.values["use"],
 		Source: f.values["source"], VapourRetarder: f.vapourRetarder}}
-	j.Version, _ = strconv.Atoi(f.values["version"])
+	j.Version, _ = parseVersion(f.values["version"])
 	if s := f.values["emittance"]; s == "" {
 		f.errors["emittance"] = "is required"
 	} else if v, err := strconv.ParseFloat(s, 64); err != nil {

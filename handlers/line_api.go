@@ -210,8 +210,8 @@ func (s *Server) apiLinePatch(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	if lf.Version == nil {
-		s.fail(w, r, Invalid(FieldError{Field: "version", Message: "is required: send the version you read"}))
+	if msg := versionProblem(lf.Version); msg != "" {
+		s.fail(w, r, Invalid(FieldError{Field: "version", Message: msg}))
 		return
 	}
 	row.ID, row.Version = l.ID, *lf.Version

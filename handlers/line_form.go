@@ -134,7 +134,7 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	}
 	lf.Tag, lf.Service, lf.Notes = pf.Get("tag"), pf.Get("service"), strings.ReplaceAll(pf.Get("notes"), "\r\n", "\n")
 	lf.Location, lf.Exposure = pf.Get("location"), pf.Get("exposure")
-	if v, err := strconv.Atoi(pf.Get("version")); err == nil {
+	if v, err := parseVersion(pf.Get("version")); err == nil {
 		lf.Version = &v
 	}
 	m := map[string]any{}

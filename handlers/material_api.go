@@ -124,8 +124,9 @@ func libDecode(r *http.Request, v any) error {
 	}
 	var typeErr *json.UnmarshalTypeError
 	var tooLarge *http.MaxBytesError
+	var bodyErr *bodyReadError
 	switch {
-	case errors.As(err, &tooLarge):
+	case errors.As(err, &tooLarge), errors.As(err, &bodyErr):
 		return err
 	case errors.As(err, &typeErr):
 		return Invalid(FieldError{Field: typeErr.Field, Message: "must be a JSON " + typeErr.Type.String()})
@@ -201,8 +202,8 @@ func (s *Server) apiMaterialPatch(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	var fe []FieldError
-	if p.Version == nil {
-		fe = append(fe, FieldError{Field: "version", Message: "is required: the version you read"})
+	if msg := versionProblem(p.Version); msg != "" {
+		fe = append(fe, FieldError{Field: "version", Message: msg})
 	} else {
 		m.Version = *p.Version
 	}

@@ -113,7 +113,7 @@ func (f *materialForm) material() (store.Material, []kOrigin) {
 		Slug: f.values["slug"], Name: f.values["name"], Category: f.values["category"], Spec: f.values["spec"],
 		Source: f.values["source"], Compressible: f.compressible,
 	}}
-	m.Version, _ = strconv.Atoi(f.values["version"])
+	m.Version, _ = parseVersion(f.values["version"])
 	num := func(key string, q units.Quantity) float64 {
 		s := f.values[key]
 		if s == "" {

@@ -1,8 +1,12 @@
 package handlers
 
 import (
+	"errors"
 	"fmt"
+	"io"
+	"net"
 	"net/http"
+	"os"
 	"runtime/debug"
 	"time"
 )
@@ -31,9 +35,35 @@ func (s *Server) limitBody(next http.Handler) http.Handler {
 			s.fail(w, r, &http.MaxBytesError{Limit: s.cfg.MaxBodyBytes})
 			return
 		}
-		r.Body = http.MaxBytesReader(w, r.Body, s.cfg.MaxBodyBytes)
+		r.Body = bodyErrors{http.MaxBytesReader(w, r.Body, s.cfg.MaxBodyBytes)}
 		next.ServeHTTP(w, r)
 	})
+}
+
+// bodyReadError is a failure to read the request body: the client's side (a body
+// sent too slowly for the server's read timeout, or a connection that broke off),
+// never the database's; fail answers it 408 or 400.
+type bodyReadError struct{ err error }
+
+func (e *bodyReadError) Error() string { return "read request body: " + e.err.Error() }
+func (e *bodyReadError) Unwrap() error { return e.err }
+
+func (e *bodyReadError) timeout() bool {
+	var ne net.Error
+	return errors.Is(e.err, os.ErrDeadlineExceeded) || (errors.As(e.err, &ne) && ne.Timeout())
+}
+
+// bodyErrors marks the body's read errors as bodyReadError (the size limit's
+// *http.MaxBytesError and io.EOF pass as they are).
+type bodyErrors struct{ io.ReadCloser }
+
+func (b bodyErrors) Read(p []byte) (int, error) {
+	n, err := b.ReadCloser.Read(p)
+	var tooLarge *http.MaxBytesError
+	if err != nil && err != io.EOF && !errors.As(err, &tooLarge) {
+		err = &bodyReadError{err}
+	}
+	return n, err
 }
 
 // recoverPanics turns a panic into a logged internal error (500), like chi's

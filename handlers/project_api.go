@@ -75,8 +75,18 @@ func readPatch(r *http.Request) (map[string]any, error) {
 	if err != nil {
 		return nil, err
 	}
-	if _, ok := m["version"]; !ok {
-		return nil, Invalid(FieldError{Field: "version", Message: "is required: send the version you read"})
+	var v *int
+	if n, ok := m["version"].(json.Number); ok {
+		if x, err := parseVersion(string(n)); err == nil {
+			v = &x
+		} else {
+			v = new(int) // present but not a version
+		}
+	} else if _, present := m["version"]; present { // null, a string, …
+		v = new(int)
+	}
+	if msg := versionProblem(v); msg != "" {
+		return nil, Invalid(FieldError{Field: "version", Message: msg})
 	}
 	return m, nil
 }
@@ -198,6 +208,10 @@ func (s *Server) apiProjectPatch(w http.ResponseWriter, r *http.Request) {
 	in, err := decodeProject(m)
 	if err != nil {
 		s.fail(w, r, err)
+		return
+	}
+	if msg := versionProblem(in.Version); msg != "" {
+		s.fail(w, r, Invalid(FieldError{Field: "version", Message: msg}))
 		return
 	}
 	row := in.project()

@@ -189,7 +189,7 @@ func projectFormFromRequest(r *http.Request) (*formState, projectInput) {
 	if err := analysis.DecodeStrict(js, &in.Settings); err != nil {
 		st.place(asFieldErrors(err), func(f string) (string, bool) { return "settings." + f, true })
 	}
-	if v, err := strconv.Atoi(r.PostForm.Get("version")); err == nil {
+	if v, err := parseVersion(r.PostForm.Get("version")); err == nil {
 		in.Version = &v
 	}
 	return st, in

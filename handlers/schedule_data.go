@@ -4,7 +4,6 @@ import (
 	"encoding/json"
 	"fmt"
 	"net/http"
-	"strconv"
 	"time"
 
 	"lagwright/analysis"
@@ -55,8 +54,8 @@ func revParam(r *http.Request) (int, error) {
 	if v == "" {
 		return 0, nil
 	}
-	n, err := strconv.Atoi(v)
-	if err != nil || n <= 0 {
+	n, err := parseVersion(v)
+	if err != nil {
 		return 0, Invalid(FieldError{Field: "rev", Message: "must be a revision number (1, 2, …)"})
 	}
 	return n, nil
