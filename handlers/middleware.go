@@ -26,6 +26,19 @@ func securityHeaders(next http.Handler) http.Handler {
 	})
 }
 
+// headAsGet answers HEAD with the GET route (status and headers; the server sends no
+// body for a HEAD request, whatever the handler writes), so monitors and link
+// checkers may HEAD /healthz, /readyz and every page.
+func headAsGet(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if r.Method == http.MethodHead {
+			r = r.WithContext(r.Context()) // a copy: the server keeps its own request
+			r.Method = http.MethodGet
+		}
+		next.ServeHTTP(w, r)
+	})
+}
+
 // limitBody refuses bodies over the limit: at once when Content-Length says so,
 // else when the handler reads past it (the read fails with *http.MaxBytesError,
 // which fail answers with 413).

@@ -10,7 +10,6 @@ import (
 	"sync"
 
 	"github.com/go-chi/chi/v5"
-	"github.com/go-chi/chi/v5/middleware"
 
 	"lagwright/results"
 	"lagwright/store"
@@ -81,7 +80,7 @@ func (s *Server) Routes() http.Handler {
 // router is the chi router of every route, without the outer safety layers.
 func (s *Server) router() *chi.Mux {
 	r := chi.NewRouter()
-	r.Use(middleware.GetHead) // HEAD runs the GET handler; net/http drops the body
+	r.Use(headAsGet)
 	r.Use(s.limitBody)
 	r.Use(s.authenticate)
 	r.Use(s.readForm)
