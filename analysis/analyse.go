@@ -203,6 +203,9 @@ func (a *analyser) run() (*Output, error) {
 	if err := a.dewPoint(); err != nil {
 		return nil, err
 	}
+	if err := a.fittingsAndSupports(main, bare); err != nil {
+		return nil, err
+	}
 	if err := a.alongRun(main); err != nil {
 		return nil, err
 	}
@@ -364,7 +367,7 @@ func (a *analyser) alongRun(main calc.Result) error {
 			return fmt.Errorf("steam latent heat: %w", err)
 		}
 		if l.lengthM > 0 {
-			o.CondensateKgPerH = a.num(round(calc.CondensateKgPerH(main.HeatFlowPerM*l.equivLengthM, hfg), 4))
+			o.CondensateKgPerH = a.num(round(calc.CondensateKgPerH(l.runHeatW, hfg), 4))
 			l.assume("condensate from the run's heat loss with latent heat %.1f kJ/kg (IAPWS-IF97)", hfg/1000)
 		} else {
 			l.warn("give length_m for the run's condensate load")

@@ -49,13 +49,20 @@ type Input struct {
 	BareEmittance    *float64     `json:"bare_emittance,omitempty"`
 	SurfaceCoeff     *float64     `json:"surface_coeff_w_m2k,omitempty"`
 
-	LengthM              *float64   `json:"length_m,omitempty"`
-	AreaM2               *float64   `json:"area_m2,omitempty"` // flat surfaces: area for per-run totals
-	FittingsEquivLengthM *float64   `json:"fittings_equiv_length_m,omitempty"`
-	Flow                 *Flow      `json:"flow,omitempty"`
-	Criteria             *Criteria  `json:"criteria,omitempty"`
-	ThicknessesMM        []float64  `json:"thicknesses_mm,omitempty"`
-	Economics            *Economics `json:"economics,omitempty"`
+	LengthM              *float64 `json:"length_m,omitempty"`
+	AreaM2               *float64 `json:"area_m2,omitempty"`                 // flat surfaces: area for per-run totals
+	FittingsEquivLengthM *float64 `json:"fittings_equiv_length_m,omitempty"` // override of the fittings' insulated equivalent length
+
+	Fittings        *Fittings       `json:"fittings,omitempty"`          // counts by kind
+	FittingFinish   *FittingFinish  `json:"fitting_finish,omitempty"`    // by kind; default insulated
+	FittingLengthsM *FittingLengths `json:"fitting_lengths_m,omitempty"` // per fitting by kind; default the table by size
+	FittingCover    *FittingCover   `json:"fitting_cover,omitempty"`     // removable covers' build-up
+	Supports        *Supports       `json:"supports,omitempty"`
+
+	Flow          *Flow      `json:"flow,omitempty"`
+	Criteria      *Criteria  `json:"criteria,omitempty"`
+	ThicknessesMM []float64  `json:"thicknesses_mm,omitempty"`
+	Economics     *Economics `json:"economics,omitempty"`
 }
 
 // Conditions holds the optional per-criterion condition sets.

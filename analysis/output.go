@@ -12,6 +12,14 @@ type Output struct {
 	OuterDiameterMM   *float64 `json:"outer_diameter_mm"`
 	OuterAreaM2PerM   *float64 `json:"outer_area_m2_per_m"`
 	EquivalentLengthM *float64 `json:"equivalent_length_m"`
+	StraightRunHeatW  *float64 `json:"straight_run_heat_w"` // heat of length_m alone
+
+	// FittingsHeatW is the heat of each counted fitting kind, W (with the override,
+	// the insulated fittings' heat is under "fittings_equiv_length"); Fittings tells each
+	// kind's count, finish, equivalent length and bare area.
+	FittingsHeatW map[string]float64 `json:"fittings_heat_w"`
+	Fittings      []FittingOut       `json:"fittings_detail"`
+	Supports      *SupportsOut       `json:"supports"`
 
 	HeatFlowWPerM   *float64     `json:"heat_flow_w_per_m"`
 	HeatFluxWm2     float64      `json:"heat_flux_w_m2"`

@@ -21,6 +21,10 @@ type ProjectSettings struct {
 	Criteria  ProjectCriteria   `json:"criteria"`
 	Economics *Economics        `json:"economics,omitempty"`
 	Fittings  FittingAllowances `json:"fittings"`
+	// FittingTable and SupportTable are the project's edits of the built-in tables by
+	// size (catalog): rows of the line's size win over "any" rows.
+	FittingTable []FittingRow `json:"fitting_table,omitempty"`
+	SupportTable []SupportRow `json:"support_spacing,omitempty"`
 	// CostTable is the installed cost per metre by material, size and thickness that
 	// Effective turns into each line's economics.installed_cost_per_m.
 	CostTable []CostRow `json:"cost_table,omitempty"`
@@ -44,25 +48,123 @@ type ProjectCriteria struct {
 	EnergyCode      string   `json:"energy_code,omitempty"`
 }
 
-// FittingAllowances is the equivalent insulated length of one fitting of each kind, in
-// metres of the run. Our defaults are common practice for heat loss and material
-// take-off on small and medium pipe; edit them per project.
+// FittingAllowances are a project's equivalent lengths for every size, one per kind,
+// metres of run per fitting: a given value replaces the table by size for that kind
+// (nil: the project's fitting_table rows, then the built-in table by the line's size).
 type FittingAllowances struct {
-	ElbowM  float64 `json:"elbow_m"`
-	TeeM    float64 `json:"tee_m"`
-	ValveM  float64 `json:"valve_m"`
-	FlangeM float64 `json:"flange_m"`
-	CapM    float64 `json:"cap_m"`
+	ElbowM    *float64 `json:"elbow_m,omitempty"`
+	TeeM      *float64 `json:"tee_m,omitempty"`
+	ValveM    *float64 `json:"valve_m,omitempty"`
+	FlangeM   *float64 `json:"flange_m,omitempty"`
+	CapM      *float64 `json:"cap_m,omitempty"`
+	StrainerM *float64 `json:"strainer_m,omitempty"`
+	ReducerM  *float64 `json:"reducer_m,omitempty"`
 }
 
-// Fittings counts the fittings on a run.
-type Fittings struct {
-	Elbows  int `json:"elbows"`
-	Tees    int `json:"tees"`
-	Valves  int `json:"valves"`
-	Flanges int `json:"flanges"`
-	Caps    int `json:"caps"`
+// ByKind gives the allowance of a fitting kind (catalog.FittingKinds).
+func (a FittingAllowances) ByKind(kind string) *float64 {
+	switch kind {
+	case "elbows":
+		return a.ElbowM
+	case "tees":
+		return a.TeeM
+	case "valves":
+		return a.ValveM
+	case "flange_pairs":
+		return a.FlangeM
+	case "caps":
+		return a.CapM
+	case "strainers":
+		return a.StrainerM
+	case "reducers":
+		return a.ReducerM
+	}
+	return nil
 }
+
+// Fittings counts the fittings on a run, by kind (the keys of catalog.FittingKinds).
+type Fittings struct {
+	Elbows      int `json:"elbows"`
+	Tees        int `json:"tees"`
+	Valves      int `json:"valves"`
+	FlangePairs int `json:"flange_pairs"`
+	Caps        int `json:"caps"`
+	Strainers   int `json:"strainers"`
+	Reducers    int `json:"reducers"`
+}
+
+// UnmarshalJSON reads counts, and the key "flanges" that counts stored before the
+// rename to "flange_pairs" carry (issued schedules keep them as they were issued).
+func (f *Fittings) UnmarshalJSON(b []byte) error {
+	type plain Fittings
+	var v struct {
+		plain
+		Flanges *int `json:"flanges"`
+	}
+	if err := json.Unmarshal(b, &v); err != nil {
+		return err
+	}
+	*f = Fittings(v.plain)
+	if v.Flanges != nil && f.FlangePairs == 0 {
+		f.FlangePairs = *v.Flanges
+	}
+	return nil
+}
+
+// Count gives the count of a fitting kind.
+func (f Fittings) Count(kind string) int {
+	if p := f.at(kind); p != nil {
+		return *p
+	}
+	return 0
+}
+
+// Set sets the count of a fitting kind (unknown kinds are ignored).
+func (f *Fittings) Set(kind string, n int) {
+	if p := f.at(kind); p != nil {
+		*p = n
+	}
+}
+
+// Any reports whether any fitting is counted.
+func (f Fittings) Any() bool { return f != Fittings{} }
+
+func (f *Fittings) at(kind string) *int {
+	switch kind {
+	case "elbows":
+		return &f.Elbows
+	case "tees":
+		return &f.Tees
+	case "valves":
+		return &f.Valves
+	case "flange_pairs":
+		return &f.FlangePairs
+	case "caps":
+		return &f.Caps
+	case "strainers":
+		return &f.Strainers
+	case "reducers":
+		return &f.Reducers
+	}
+	return nil
+}
+
+// FittingRow is one row of a project's fitting table: the equivalent insulated length
+// of one fitting of a kind at a nominal size ("any": every size).
+type FittingRow struct {
+	Kind         string  `json:"kind"` // catalog.FittingKinds
+	NominalSize  string  `json:"nominal_size"`
+	EquivLengthM float64 `json:"equiv_length_m"`
+}
+
+// SupportRow is one row of a project's support-spacing table.
+type SupportRow struct {
+	NominalSize string  `json:"nominal_size"`
+	SpacingM    float64 `json:"spacing_m"`
+}
+
+// maxTableRows bounds a project's fitting and support tables.
+const maxTableRows = 500
 
 // DefaultSettings is a new project's settings: a temperate indoor plant room and a
 // mild outdoor design day. Users are expected to edit them.
@@ -71,20 +173,63 @@ func DefaultSettings() ProjectSettings {
 		Indoor:   Location{AmbientTempC: 24, RelativeHumidityPct: ptr(50.0)},
 		Outdoor:  Location{AmbientTempC: 30, WindMS: 3, RelativeHumidityPct: ptr(70.0)},
 		Criteria: ProjectCriteria{MaxSurfaceTempC: ptr(60.0), DewMarginK: ptr(1.0)},
-		Fittings: DefaultFittingAllowances(),
 	}
 }
 
-// DefaultFittingAllowances are our defaults (common practice: a fitting counts as a
-// short length of run — an elbow about 0.6 m, a valve about 1.5 m with its bonnet).
-func DefaultFittingAllowances() FittingAllowances {
-	return FittingAllowances{ElbowM: 0.6, TeeM: 0.9, ValveM: 1.5, FlangeM: 0.6, CapM: 0.3}
+// fittingLengths gives the project's per-fitting lengths for a line of the given
+// nominal size: the all-size allowance, else the row of the line's size, else the
+// "any" row; nil where the project has none (the built-in table by size applies).
+func (p ProjectSettings) fittingLengths(size string) *FittingLengths {
+	want := NormalSize(size)
+	var out FittingLengths
+	found := false
+	for _, kind := range catalogFittingKinds() {
+		v := p.Fittings.ByKind(kind)
+		if v == nil {
+			var anyRow *float64
+			for _, r := range p.FittingTable {
+				if r.Kind != kind {
+					continue
+				}
+				rs := NormalSize(r.NominalSize)
+				if want != "" && rs == want {
+					v = ptr(r.EquivLengthM)
+					break
+				}
+				if rs == AnySize && anyRow == nil {
+					anyRow = ptr(r.EquivLengthM)
+				}
+			}
+			if v == nil {
+				v = anyRow
+			}
+		}
+		if v != nil {
+			*out.at(kind) = v
+			found = true
+		}
+	}
+	if !found {
+		return nil
+	}
+	return &out
 }
 
-// EquivalentLength is the fittings' equivalent insulated length, m.
-func (a FittingAllowances) EquivalentLength(f Fittings) float64 {
-	return float64(f.Elbows)*a.ElbowM + float64(f.Tees)*a.TeeM + float64(f.Valves)*a.ValveM +
-		float64(f.Flanges)*a.FlangeM + float64(f.Caps)*a.CapM
+// supportSpacing gives the project's support spacing for a nominal size: the row of
+// that size, else the "any" row; nil when the project has neither.
+func (p ProjectSettings) supportSpacing(size string) *float64 {
+	want := NormalSize(size)
+	var anyRow *float64
+	for _, r := range p.SupportTable {
+		rs := NormalSize(r.NominalSize)
+		if want != "" && rs == want {
+			return ptr(r.SpacingM)
+		}
+		if rs == AnySize && anyRow == nil {
+			anyRow = ptr(r.SpacingM)
+		}
+	}
+	return anyRow
 }
 
 // Validate checks the settings into field errors (paths as in the project JSON).
@@ -110,10 +255,12 @@ func (p ProjectSettings) Validate() error {
 	for _, fe := range CostTable(p.CostTable).Validate() {
 		c.add(fmt.Sprintf("settings.cost_table[%d].%s", fe.Row, fe.Field), "%s", fe.Message)
 	}
-	for name, v := range map[string]float64{"elbow_m": p.Fittings.ElbowM, "tee_m": p.Fittings.TeeM, "valve_m": p.Fittings.ValveM,
-		"flange_m": p.Fittings.FlangeM, "cap_m": p.Fittings.CapM} {
-		rangeCheck(&c, "settings.fittings."+name, &v, 0, 50, "m")
+	for name, v := range map[string]*float64{"elbow_m": p.Fittings.ElbowM, "tee_m": p.Fittings.TeeM, "valve_m": p.Fittings.ValveM,
+		"flange_m": p.Fittings.FlangeM, "cap_m": p.Fittings.CapM, "strainer_m": p.Fittings.StrainerM, "reducer_m": p.Fittings.ReducerM} {
+		rangeCheck(&c, "settings.fittings."+name, v, 0, 50, "m")
 	}
+	validateFittingTable(&c, p.FittingTable)
+	validateSupportTable(&c, p.SupportTable)
 	return c.err()
 }
 
@@ -174,8 +321,23 @@ func (p ProjectSettings) Effective(location string, line Input, fit Fittings) In
 		}
 		in.Economics = &e
 	}
-	if eq := p.Fittings.EquivalentLength(fit); eq > 0 && in.FittingsEquivLengthM == nil && in.LengthM != nil {
-		in.FittingsEquivLengthM = ptr(eq)
+	if in.Fittings == nil && fit.Any() {
+		in.Fittings = &fit
+	}
+	if in.Geometry == "pipe" && in.PipeSize != "" {
+		if in.FittingLengthsM == nil && in.Fittings != nil && in.Fittings.Any() {
+			in.FittingLengthsM = p.fittingLengths(in.PipeSize)
+		}
+		if sp := p.supportSpacing(in.PipeSize); sp != nil && (in.Supports == nil || in.Supports.SpacingM == nil) {
+			s := Supports{}
+			if in.Supports != nil {
+				s = *in.Supports
+			}
+			s.SpacingM = sp
+			in.Supports = &s
+		}
+	} else if in.FittingLengthsM == nil && in.Fittings != nil && in.Fittings.Any() {
+		in.FittingLengthsM = p.fittingLengths("")
 	}
 	return in
 }
@@ -383,4 +545,54 @@ func ExampleCostRows(materials []string, thicknessesMM func(slug string) []float
 		}
 	}
 	return out
+}
+
+// validateFittingTable checks a project's fitting rows: a known kind, a size (or
+// "any"), a length 0 … 50 m, no two rows for the same kind and size.
+func validateFittingTable(c *errs, rows []FittingRow) {
+	if len(rows) > maxTableRows {
+		c.add("settings.fitting_table", "must have at most %d rows", maxTableRows)
+		return
+	}
+	seen := map[[2]string]int{}
+	for i, r := range rows {
+		p := fmt.Sprintf("settings.fitting_table[%d].", i)
+		if !slices.Contains(catalogFittingKinds(), r.Kind) {
+			c.add(p+"kind", "must be one of %s", strings.Join(catalogFittingKinds(), ", "))
+		}
+		size := NormalSize(r.NominalSize)
+		if size == "" {
+			c.add(p+"nominal_size", `is required (a nominal size such as "NPS 4", "DN100", or "any")`)
+		}
+		rangeCheck(c, p+"equiv_length_m", &r.EquivLengthM, 0, 50, "m")
+		k := [2]string{r.Kind, size}
+		if j, ok := seen[k]; ok && size != "" {
+			c.add(p+"nominal_size", "repeats row %d (same kind and size)", j+1)
+		} else {
+			seen[k] = i
+		}
+	}
+}
+
+// validateSupportTable checks a project's support rows: a size (or "any"), a spacing
+// 0.3 … 100 m, no size twice.
+func validateSupportTable(c *errs, rows []SupportRow) {
+	if len(rows) > maxTableRows {
+		c.add("settings.support_spacing", "must have at most %d rows", maxTableRows)
+		return
+	}
+	seen := map[string]int{}
+	for i, r := range rows {
+		p := fmt.Sprintf("settings.support_spacing[%d].", i)
+		size := NormalSize(r.NominalSize)
+		if size == "" {
+			c.add(p+"nominal_size", `is required (a nominal size such as "NPS 4", "DN100", or "any")`)
+		}
+		rangeCheck(c, p+"spacing_m", &r.SpacingM, 0.3, 100, "m")
+		if j, ok := seen[size]; ok && size != "" {
+			c.add(p+"nominal_size", "repeats row %d (same size)", j+1)
+		} else {
+			seen[size] = i
+		}
+	}
 }

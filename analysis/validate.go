@@ -67,8 +67,15 @@ type line struct {
 	superheatK   float64 // > 0: superheated steam, operating this far above saturation
 	cpJkgK       float64
 	lengthM      float64 // 0 = not given
-	equivLengthM float64 // length + fittings
-	areaM2       float64 // flats: 0 = not given
+	equivLengthM float64 // length + the insulated fittings' equivalent length
+	runHeatW     float64 // the run's whole heat: run, fittings of every finish, supports
+
+	fittings       []fittingKind
+	anyCover       bool
+	coverJacket    *catalog.Jacket
+	supports       *Supports // nil: not a pipe run
+	supportSpacing float64
+	areaM2         float64 // flats: 0 = not given
 
 	design, personnel, condensation, freeze, econ airSet
 	crit                                          criteria
@@ -233,6 +240,7 @@ func resolve(in Input, r Resolver) (*line, error) {
 	resolveLayers(l, r, &c)
 	resolveSurface(l, r, &c)
 	resolveRun(l, &c)
+	resolveFittings(l, r, &c)
 	resolveCriteria(l, &c)
 	resolveEconomics(l, &c)
 	if err := c.err(); err != nil {

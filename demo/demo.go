@@ -98,7 +98,7 @@ func duct(wIn, hIn, lengthFt, tempF float64, jacket string, layers ...analysis.L
 }
 
 func fit(e, t, v, fl, c int) analysis.Fittings {
-	return analysis.Fittings{Elbows: e, Tees: t, Valves: v, Flanges: fl, Caps: c}
+	return analysis.Fittings{Elbows: e, Tees: t, Valves: v, FlangePairs: fl, Caps: c}
 }
 
 // Lines is the demo line list.

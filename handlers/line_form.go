@@ -49,8 +49,10 @@ var fittingFields = []numField{
 	{Key: "fittings.elbows", Int: true, Label: "Elbows"},
 	{Key: "fittings.tees", Int: true, Label: "Tees"},
 	{Key: "fittings.valves", Int: true, Label: "Valves"},
-	{Key: "fittings.flanges", Int: true, Label: "Flange pairs"},
+	{Key: "fittings.flange_pairs", Int: true, Label: "Flange pairs"},
 	{Key: "fittings.caps", Int: true, Label: "Caps"},
+	{Key: "fittings.strainers", Int: true, Label: "Strainers"},
+	{Key: "fittings.reducers", Int: true, Label: "Reducers"},
 }
 
 // shapes are the geometry choices: the form's "shape" sets geometry, orientation and facing.
@@ -100,9 +102,8 @@ func (l *lineFields) validateMeta() analysis.FieldErrors {
 	if l.Exposure != "exposed" && l.Exposure != "concealed" {
 		add("exposure", `must be "exposed" or "concealed"`)
 	}
-	f := l.Fittings
-	for k, n := range map[string]int{"elbows": f.Elbows, "tees": f.Tees, "valves": f.Valves, "flanges": f.Flanges, "caps": f.Caps} {
-		if n < 0 || n > 10000 {
+	for _, k := range catalog.FittingKinds {
+		if n := l.Fittings.Count(k); n < 0 || n > 10000 {
 			add("fittings."+k, "must be between 0 and 10000")
 		}
 	}

@@ -67,7 +67,7 @@ func TestLinePagesCreateEditDuplicateDelete(t *testing.T) {
 		!ptNear(*in.OperatingTempC, 6.666666667, 1e-6) || !ptNear(*in.LengthM, 36.576, 1e-9) { // 44 °F; 120 ft = 36.576 m exactly
 		t.Errorf("stored input %s", lines[0].Input)
 	}
-	if lines[0].ResultHash == "" || len(lines[0].Result) == 0 || string(lines[0].Fittings) != `{"caps": 0, "tees": 0, "elbows": 4, "valves": 2, "flanges": 0}` {
+	if lines[0].ResultHash == "" || len(lines[0].Result) == 0 || string(lines[0].Fittings) != `{"caps": 0, "tees": 0, "elbows": 4, "valves": 2, "reducers": 0, "strainers": 0, "flange_pairs": 0}` {
 		t.Errorf("stored result hash %q, fittings %s", lines[0].ResultHash, lines[0].Fittings)
 	}
 	lineURL := fmt.Sprintf("%s/lines/%d", base, lines[0].ID)

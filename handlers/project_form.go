@@ -69,6 +69,8 @@ func projectNumFields() []numField {
 		numField{Key: "settings.fittings.valve_m", Q: units.LongLength, Label: "Valve"},
 		numField{Key: "settings.fittings.flange_m", Q: units.LongLength, Label: "Flange pair"},
 		numField{Key: "settings.fittings.cap_m", Q: units.LongLength, Label: "Cap"},
+		numField{Key: "settings.fittings.strainer_m", Q: units.LongLength, Label: "Strainer"},
+		numField{Key: "settings.fittings.reducer_m", Q: units.LongLength, Label: "Reducer"},
 	)
 	return out
 }

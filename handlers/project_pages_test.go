@@ -106,7 +106,7 @@ func TestProjectPagesCreateEdit(t *testing.T) {
 		{"outdoor wind 7.5 mph", set.Outdoor.WindMS, 3.35280},                               // exact: 1 mph = 0.44704 m/s
 		{"touch limit 140 °F", *set.Criteria.MaxSurfaceTempC, 60},                           // exact
 		{"dew margin 1.8 °F", *set.Criteria.DewMarginK, 1},                                  // exact: a difference, no offset
-		{"elbow 2 ft", set.Fittings.ElbowM, 0.6096},                                         // exact: 1 ft = 0.3048 m
+		{"elbow 2 ft", *set.Fittings.ElbowM, 0.6096},                                        // exact: 1 ft = 0.3048 m
 		{"discount 5 %", *set.Economics.DiscountRate, 0.05},                                 // percent to fraction
 		{"freeze initial 50 °F", *set.Outdoor.Conditions.Freeze.InitialTempC, 10},           // exact
 		{"freeze ambient 0 °F", *set.Outdoor.Conditions.Freeze.AmbientTempC, -17.777777778}, // exact

@@ -125,8 +125,10 @@ func buildColumns() []column {
 		count("elbows", func(f *analysis.Fittings) *int { return &f.Elbows }),
 		count("tees", func(f *analysis.Fittings) *int { return &f.Tees }),
 		count("valves", func(f *analysis.Fittings) *int { return &f.Valves }),
-		count("flanges", func(f *analysis.Fittings) *int { return &f.Flanges }),
+		count("flange_pairs", func(f *analysis.Fittings) *int { return &f.FlangePairs }),
 		count("caps", func(f *analysis.Fittings) *int { return &f.Caps }),
+		count("strainers", func(f *analysis.Fittings) *int { return &f.Strainers }),
+		count("reducers", func(f *analysis.Fittings) *int { return &f.Reducers }),
 		text("fluid", "fluid", func(b *builder) *string { return &b.row.Input.Fluid }, func(r *Row) string { return r.Input.Fluid }),
 		qty("operating_temp", "operating_temp_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.row.Input.OperatingTempC },
 			func(in *analysis.Input) *float64 { return in.OperatingTempC }),
@@ -199,6 +201,7 @@ var byName = func() map[string]int {
 	for i, c := range columns {
 		m[c.name] = i
 	}
+	m["flanges"] = m["flange_pairs"] // the column's name before flange pairs were named so
 	return m
 }()
 

@@ -10,8 +10,8 @@
 // equals the sum of the rows above it.
 //
 // Quantities (our choices, stated in every export header and in the README):
-//   - insulated length = run length + the fittings' equivalent length (the project's
-//     fitting allowances, analysis.FittingAllowances);
+//   - insulated length = run length + the insulated fittings' equivalent length (the
+//     line's answer: the table by size, the project's allowances, or the override);
 //   - jacket area = outer surface area per metre × insulated length × (1 + LapWaste)
 //     (flat surfaces: area × (1 + LapWaste)); LapWaste is 10 % for laps and waste;
 //   - insulation volume = installed cross-section × insulated length (pipes: the annulus
@@ -85,6 +85,7 @@ type Header struct {
 	Cautions      []string                   `json:"cautions"`
 	LapWastePct   float64                    `json:"lap_waste_pct"`
 	Fittings      analysis.FittingAllowances `json:"fitting_allowances"`
+	FittingTable  []analysis.FittingRow      `json:"fitting_table,omitempty"`
 }
 
 // Conditions are the design conditions of one location.
@@ -223,6 +224,7 @@ func header(p Project, rev int, date time.Time) Header {
 		Cautions:      []string{analysis.Caution},
 		LapWastePct:   LapWaste * 100,
 		Fittings:      set.Fittings,
+		FittingTable:  set.FittingTable,
 	}
 }
 
@@ -246,6 +248,9 @@ func buildRow(l Line, r Resolver) Row {
 	}
 	if in.FittingsEquivLengthM != nil && in.LengthM != nil {
 		row.FittingsM = *in.FittingsEquivLengthM
+	}
+	if o := l.Output; o != nil && o.EquivalentLengthM != nil && in.LengthM != nil {
+		row.FittingsM = *o.EquivalentLengthM - *in.LengthM
 	}
 	if in.LengthM != nil {
 		row.InsulatedM = ptr(*in.LengthM + row.FittingsM)

@@ -104,8 +104,8 @@ func TestUSUnits(t *testing.T) {
 		{"Total thickness (in)", "4.000"}, // 2 × 50.8 mm = 2 × 2 in
 		{"Layer build-up", "2 × 2 in"},
 		{"Pipe OD (in)", "2.374"},               // NPS 2: the catalog's metric OD 60.3 mm (ASME B36.10M) = 2.374 in
-		{"Fittings equiv. length (ft)", "19.7"}, // 3 elbows × 0.6 m + 2 valves × 1.5 m + 2 flanges × 0.6 m = 6.0 m = 19.69 ft
-		{"Insulated length (ft)", "119.7"},      // 100 ft + 19.69 ft
+		{"Fittings equiv. length (ft)", "15.6"}, // built-in table at NPS 2: 3 elbows × 0.45 m + 2 valves × 1.3 m + 2 flange pairs × 0.4 m = 4.75 m = 15.58 ft
+		{"Insulated length (ft)", "115.6"},      // 100 ft + 15.58 ft
 		{"Elbows", "3"},
 	} {
 		if got := stm[colOf(t, head, tc.heading)]; got != tc.want {

@@ -9,6 +9,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/calc"
+	"lagwright/catalog"
 	"lagwright/units"
 )
 
@@ -158,7 +159,7 @@ func BuildSheet(p Project, l Line, r Resolver, date time.Time) Sheet {
 	inp.add("Surface area", f.p(units.Area, in.AreaM2))
 	fit := l.Fittings
 	if fit != (analysis.Fittings{}) {
-		inp.add("Fittings", fmt.Sprintf("%d elbows, %d tees, %d valves, %d flanges, %d caps", fit.Elbows, fit.Tees, fit.Valves, fit.Flanges, fit.Caps))
+		inp.add("Fittings", fittingCounts(fit))
 	}
 	inp.add("Fittings' equivalent length", f.p(units.LongLength, in.FittingsEquivLengthM))
 	if fl := in.Flow; fl != nil {
@@ -378,4 +379,19 @@ func WriteSheetPDF(w io.Writer, sh Sheet) error {
 		return fmt.Errorf("pdf: %w", err)
 	}
 	return d.Output(w)
+}
+
+// fittingCounts writes a line's fitting counts: "4 elbows, 2 valves".
+func fittingCounts(f analysis.Fittings) string {
+	var parts []string
+	for _, k := range catalog.FittingKinds {
+		if n := f.Count(k); n > 0 {
+			name := catalog.FittingKindName(k)
+			if n != 1 {
+				name += "s"
+			}
+			parts = append(parts, strconv.Itoa(n)+" "+name)
+		}
+	}
+	return strings.Join(parts, ", ")
 }

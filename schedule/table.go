@@ -6,6 +6,7 @@ import (
 	"strconv"
 	"strings"
 
+	"lagwright/catalog"
 	"lagwright/units"
 )
 
@@ -270,7 +271,7 @@ func (c conv) cells(r Row) []Cell {
 		text(r.SizeText(c.sys)), odCell,
 		c.opt(units.LongLength, r.LengthM),
 		intCell(r.Fittings.Elbows), intCell(r.Fittings.Tees), intCell(r.Fittings.Valves),
-		intCell(r.Fittings.Flanges), intCell(r.Fittings.Caps),
+		intCell(r.Fittings.FlangePairs), intCell(r.Fittings.Caps),
 		fitLen,
 		c.opt(units.LongLength, r.InsulatedM),
 		c.opt(units.Area, r.SurfaceAreaM2()),
@@ -462,7 +463,6 @@ func (c conv) conditions(h Header) [][2]string {
 		}
 		return s + ", wind " + units.FormatUnit(units.Speed, sys, l.WindMS)
 	}
-	f := h.Fittings
 	ll := func(m float64) string { return units.FormatUnit(units.LongLength, sys, m) }
 	out := [][2]string{
 		{"Project", h.Project},
@@ -478,8 +478,7 @@ func (c conv) conditions(h Header) [][2]string {
 		[2]string{"Units", unitName},
 		[2]string{"Design conditions, indoor", loc(h.Indoor)},
 		[2]string{"Design conditions, outdoor", loc(h.Outdoor)},
-		[2]string{"Fitting allowances (equivalent length each)", "elbow " + ll(f.ElbowM) + ", tee " + ll(f.TeeM) +
-			", valve " + ll(f.ValveM) + ", flange " + ll(f.FlangeM) + ", cap " + ll(f.CapM)},
+		[2]string{"Fitting allowances (equivalent length each)", h.fittingAllowancesText(ll)},
 		[2]string{"Jacket area", "outer surface × insulated length + " + strconv.FormatFloat(h.LapWastePct, 'f', -1, 64) +
 			" % for laps and waste"},
 		[2]string{"Insulation volume", "installed cross-section × insulated length, no waste allowance"},
@@ -487,4 +486,23 @@ func (c conv) conditions(h Header) [][2]string {
 		[2]string{"Method version", h.MethodVersion},
 	)
 	return out
+}
+
+// fittingAllowancesText says where the fittings' equivalent lengths came from: the
+// built-in table by size, with the project's own allowances and rows named.
+func (h Header) fittingAllowancesText(ll func(float64) string) string {
+	var own []string
+	for _, k := range catalog.FittingKinds {
+		if v := h.Fittings.ByKind(k); v != nil {
+			own = append(own, catalog.FittingKindName(k)+" "+ll(*v))
+		}
+	}
+	s := "by size, " + catalog.FittingLengthBasis
+	if len(own) > 0 {
+		s += "; the project's allowance for every size: " + strings.Join(own, ", ")
+	}
+	if n := len(h.FittingTable); n > 0 {
+		s += "; the project's table by size: " + strconv.Itoa(n) + " rows"
+	}
+	return s
 }
