@@ -4,7 +4,7 @@ WORKDIR /src
 COPY go.mod go.sum ./
 RUN go mod download
 COPY . .
-RUN CGO_ENABLED=0 go build -trimpath -o /out/lagwright ./cmd/lagwright
+RUN CGO_ENABLED=0 go build -trimpath -buildvcs=false -o /out/lagwright ./cmd/lagwright
 
 FROM debian:bookworm-slim
 RUN apt-get update && apt-get install -y --no-install-recommends ca-certificates \

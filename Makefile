@@ -1,15 +1,19 @@
-# Lagwright: `make run` starts the app with its own PostgreSQL; `make test` is CI.
+# Lagwright: `make run` builds bin/lagwright and starts it with its own PostgreSQL;
+# `make build` only builds it; `make test` is CI.
 .PHONY: run test build generate
 
-run:
-	scripts/ensure-postgres.sh
-	go run ./cmd/lagwright serve
+# The app replaces the recipe's shell (exec), so Ctrl-C and a SIGTERM sent to make
+# reach it directly: it drains requests, stops its PostgreSQL and exits 0 (make then
+# reports no error); nothing is left running.
+run: build
+	@scripts/ensure-postgres.sh
+	exec bin/lagwright serve
+
+build:
+	@scripts/build.sh
 
 test:
 	scripts/test.sh
-
-build:
-	go build -o bin/lagwright ./cmd/lagwright
 
 generate:
 	go tool templ generate

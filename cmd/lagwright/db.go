@@ -3,6 +3,8 @@ package main
 import (
 	"context"
 	"errors"
+	"fmt"
+	"os"
 	"log/slog"
 	"path/filepath"
 	"time"
@@ -30,6 +32,9 @@ func openStore(ctx context.Context, cfg config, log *slog.Logger, attach bool) (
 		}
 		return st, func() error { st.Close(); return nil }, nil
 	}
+	if err := checkDataDir(cfg.DataDir); err != nil {
+		return nil, nil, err
+	}
 	cl, err := localpg.Start(ctx, localpg.Options{
 		DataDir: filepath.Join(cfg.DataDir, "pg"),
 		Logger:  log.With("component", "localpg"),
@@ -48,4 +53,17 @@ func openStore(ctx context.Context, cfg config, log *slog.Logger, attach bool) (
 		return nil, nil, errors.Join(err, stop())
 	}
 	return st, func() error { st.Close(); return stop() }, nil
+}
+
+// checkDataDir refuses a data folder that exists but is not a folder (a file, or a
+// link to one), rather than letting the cluster land somewhere else.
+func checkDataDir(dir string) error {
+	fi, err := os.Stat(dir)
+	if err == nil && !fi.IsDir() {
+		return fmt.Errorf("LAGWRIGHT_DATA %s is a file, not a folder: point it at a folder (it is made when missing)", dir)
+	}
+	if err != nil && !errors.Is(err, os.ErrNotExist) {
+		return fmt.Errorf("LAGWRIGHT_DATA %s: %w", dir, err)
+	}
+	return nil
 }

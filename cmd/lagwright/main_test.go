@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"net"
 	"net/http"
 	"os"
 	"path/filepath"
@@ -175,5 +176,55 @@ func TestServeEndToEnd(t *testing.T) {
 				t.Error("second start made a new cluster instead of reusing the data")
 			}
 		})
+	}
+}
+
+// TestServeRefusesEarly: a taken port is reported before PostgreSQL starts (no
+// cluster is made), and a LAGWRIGHT_DATA that is a file is an error, not a cluster
+// elsewhere.
+func TestServeRefusesEarly(t *testing.T) {
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer ln.Close()
+	data := t.TempDir()
+	var stderr bytes.Buffer
+	err = run(context.Background(), []string{"serve"}, env(map[string]string{
+		"LAGWRIGHT_ADDR": ln.Addr().String(), "LAGWRIGHT_DATA": data,
+	}), strings.NewReader(""), io.Discard, &stderr)
+	if err == nil || !strings.Contains(err.Error(), "listen on "+ln.Addr().String()) {
+		t.Errorf("serve on a taken port: %v; want a listen error naming the address", err)
+	}
+	if _, err := os.Stat(filepath.Join(data, "pg")); !errors.Is(err, os.ErrNotExist) {
+		t.Errorf("a cluster was made before the port was checked (%v)", err)
+	}
+
+	file := filepath.Join(t.TempDir(), "not-a-folder")
+	if err := os.WriteFile(file, []byte("x"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	err = run(context.Background(), []string{"serve"}, env(map[string]string{
+		"LAGWRIGHT_ADDR": "127.0.0.1:0", "LAGWRIGHT_DATA": file,
+	}), strings.NewReader(""), io.Discard, &stderr)
+	if err == nil || !strings.Contains(err.Error(), "is a file") {
+		t.Errorf("LAGWRIGHT_DATA a file: %v; want an error saying so", err)
+	}
+}
+
+// TestTimeoutSettings: the database timeouts come from the environment, flags over
+// it, and a bad value is a usage error naming the setting.
+func TestTimeoutSettings(t *testing.T) {
+	cfg, _, err := parseConfig("serve", []string{"-acquire-timeout", "3s"}, env(map[string]string{
+		"LAGWRIGHT_STATEMENT_TIMEOUT": "45s", "LAGWRIGHT_ACQUIRE_TIMEOUT": "9s",
+	}), io.Discard)
+	if err != nil || cfg.DB.StatementTimeout != 45*time.Second || cfg.DB.AcquireTimeout != 3*time.Second {
+		t.Errorf("config = %+v, %v", cfg.DB, err)
+	}
+	for _, bad := range []string{"30", "-1s", "soon", "50ms"} {
+		_, _, err := parseConfig("serve", nil, env(map[string]string{"LAGWRIGHT_STATEMENT_TIMEOUT": bad}), io.Discard)
+		if err == nil || !strings.Contains(err.Error(), "statement timeout") {
+			t.Errorf("statement timeout %q: %v; want a usage error naming it", bad, err)
+		}
 	}
 }

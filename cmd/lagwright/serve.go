@@ -45,6 +45,15 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 	ctx, stop := signal.NotifyContext(ctx, os.Interrupt, syscall.SIGTERM)
 	defer stop()
 
+	// Listen first: a taken port fails at once, before PostgreSQL starts and
+	// migrations run (and tests may use :0). Connections wait in the backlog until
+	// the database is ready.
+	ln, err := net.Listen("tcp", cfg.Addr)
+	if err != nil {
+		return fmt.Errorf("listen on %s: %w (is another Lagwright running? set LAGWRIGHT_ADDR or -addr to another port)", cfg.Addr, err)
+	}
+	defer ln.Close()
+
 	t0 := time.Now()
 	st, closeStore, err := openStore(ctx, cfg, log, ownCluster)
 	if err != nil {
@@ -63,11 +72,6 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 	srv, err := handlers.New(st, log, handlers.Config{Version: version(), Auth: auth})
 	if err != nil {
 		return err
-	}
-	// Listen before serving, so a taken port fails at once and tests may use :0.
-	ln, err := net.Listen("tcp", cfg.Addr)
-	if err != nil {
-		return fmt.Errorf("listen: %w", err)
 	}
 	hs := newHTTPServer(ctx, srv.Routes(), log)
 	log.Info("listening", "addr", ln.Addr().String(), "url", "http://"+ln.Addr().String()+"/", "version", version(),
