@@ -4,8 +4,8 @@ import (
 	"context"
 	"errors"
 	"fmt"
-	"os"
 	"log/slog"
+	"os"
 	"path/filepath"
 	"time"
 
