@@ -412,7 +412,10 @@ func (a *analyser) assumeCostSource() {
 		if mat == "" {
 			mat = "the outer layer (no material slug)"
 		}
-		if size == "" {
+		switch {
+		case l.shape.IsFlat():
+			size = `a flat surface (rows of size "flat", cost per m²)`
+		case size == "":
 			size = "without a nominal size"
 		}
 		l.assume("economics: no row of the project's cost table matches %s, %s, so no installed cost: no payback, life-cycle cost or economic thickness", mat, size)

@@ -106,7 +106,7 @@ func TestNormalSize(t *testing.T) {
 		{"NPS 4", "NPS 4"}, {"4", "NPS 4"}, {`4"`, "NPS 4"}, {"4 in", "NPS 4"}, {"nps4", "NPS 4"},
 		{"NPS 1-1/2", "NPS 1.5"}, {"1 1/2", "NPS 1.5"}, {"1.5", "NPS 1.5"}, {"3/4", "NPS 0.75"},
 		{"DN100", "DN100"}, {"dn 100", "DN100"}, {"CTS 1", "CTS 1"}, {"cts1", "CTS 1"},
-		{"any", "any"}, {"ANY", "any"}, {"*", "any"}, {"", ""}, {"big", ""}, {"1/0", ""},
+		{"any", "any"}, {"ANY", "any"}, {"*", "any"}, {"Flat", "flat"}, {"", ""}, {"big", ""}, {"1/0", ""},
 	} {
 		if got := NormalSize(c.in); got != c.want {
 			t.Errorf("NormalSize(%q) = %q, want %q", c.in, got, c.want)
@@ -122,6 +122,7 @@ func TestCostTableMatch(t *testing.T) {
 		{Material: mf, NominalSize: "NPS 4", ThicknessMM: 50.8, CostPerM: 62},
 		{Material: mf, NominalSize: "2", ThicknessMM: 38.1, CostPerM: 33, Example: true},
 		{Material: "cellular_glass_c552_t2", NominalSize: "any", ThicknessMM: 50.8, CostPerM: 90},
+		{Material: mf, NominalSize: "flat", ThicknessMM: 50.8, CostPerM: 120}, // per m²: never prices a pipe
 	}
 	for _, c := range []struct {
 		name, mat, size string
@@ -135,6 +136,7 @@ func TestCostTableMatch(t *testing.T) {
 		{"other material", "cellular_glass_c552_t2", "NPS 4", []CostPoint{{50.8, 90}}, false},
 		{"no match", "polyiso_c591", "NPS 4", nil, false},
 		{"no material", "", "NPS 4", nil, false},
+		{"flat takes only flat rows", mf, "flat", []CostPoint{{50.8, 120}}, false},
 	} {
 		got, ex := table.Match(c.mat, c.size)
 		if !slices.Equal(got, c.want) || ex != c.example {
@@ -324,5 +326,99 @@ func TestEconomicsFieldErrors(t *testing.T) {
 	if i := slices.IndexFunc(fe, func(f FieldError) bool { return f.Field == "economics.energy_price_per_kwh" }); i >= 0 &&
 		!strings.Contains(fe[i].Message, "heating.price_per_kwh") {
 		t.Errorf("the moved key's message %q does not say where it went", fe[i].Message)
+	}
+}
+
+// TestEconomicMinimumAtTheEdge: a warning says the minimum may lie outside the priced
+// range exactly when the least life-cycle cost is at the thinnest or thickest priced
+// thickness, and names which.
+func TestEconomicMinimumAtTheEdge(t *testing.T) {
+	seen := map[string]bool{}
+	for _, price := range []string{"0.002", "0.005", "0.01", "0.02", "0.04", "0.08", "0.3", "1.2", "5"} {
+		out := mustRun(t, strings.Replace(econLine, "PRICE", price, 1))
+		rows := out.Economics[1:] // after the bare row
+		at := -1
+		for i, r := range rows {
+			if at < 0 || *r.LifeCycleCost < *rows[at].LifeCycleCost {
+				at = i
+			}
+		}
+		thin := slices.ContainsFunc(out.Warnings, func(w string) bool { return strings.Contains(w, "at the thinnest priced thickness") })
+		thick := slices.ContainsFunc(out.Warnings, func(w string) bool { return strings.Contains(w, "at the thickest priced thickness") })
+		bare := *out.Sizing.EconomicMM == 0
+		switch {
+		case bare:
+			seen["bare"] = true
+			if thin || thick {
+				t.Errorf("price %s: bare is economic, yet an edge warning: %q", price, out.Warnings)
+			}
+		case at == 0:
+			seen["thin"] = true
+			if !thin || thick {
+				t.Errorf("price %s: minimum at the thinnest (%g mm) but warnings %q", price, rows[at].ThicknessMM, out.Warnings)
+			}
+		case at == len(rows)-1:
+			seen["thick"] = true
+			if !thick || thin {
+				t.Errorf("price %s: minimum at the thickest (%g mm) but warnings %q", price, rows[at].ThicknessMM, out.Warnings)
+			}
+		default:
+			seen["inside"] = true
+			if thin || thick {
+				t.Errorf("price %s: minimum inside the range (%g mm) but warnings %q", price, rows[at].ThicknessMM, out.Warnings)
+			}
+		}
+	}
+	for _, k := range []string{"thin", "thick", "inside"} {
+		if !seen[k] {
+			t.Errorf("no price put the minimum %s: the test does not cover it", k)
+		}
+	}
+}
+
+// TestNoInvestmentNoPayback: without installed costs no row has an installed cost or a
+// payback (null, shown "—"), never a payback of 0 years.
+func TestNoInvestmentNoPayback(t *testing.T) {
+	out := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":150,"ambient_temp_c":15,"length_m":100,
+		"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"aluminium_new",
+		"economics":{"heating":{"price_per_kwh":0.06}}}`)
+	if len(out.Economics) < 2 {
+		t.Fatalf("rows %+v", out.Economics)
+	}
+	for _, r := range append(out.Economics, *out.EconomicsAsSpecified) {
+		if r.InstalledCost != nil || r.SimplePaybackYears != nil || r.IncrementalPaybackYears != nil || r.NPV != nil || r.LifeCycleCost != nil {
+			t.Errorf("%g mm without installed costs: %+v", r.ThicknessMM, r)
+		}
+	}
+}
+
+// TestFlatSurfacePricedPerSquareMetre: a flat surface takes only the cost table's "flat"
+// rows (per m²) and its economics say so; a per-metre "any" row never prices it.
+func TestFlatSurfacePricedPerSquareMetre(t *testing.T) {
+	const mat = "mineral_fiber_board_c612"
+	var in Input
+	js := `{"geometry":"flat","orientation":"vertical","operating_temp_c":90,"area_m2":20,
+		"layers":[{"material":"` + mat + `","thickness_mm":50}],"surface_emittance":0.9}`
+	if err := json.Unmarshal([]byte(js), &in); err != nil {
+		t.Fatal(err)
+	}
+	set := DefaultSettings()
+	set.Economics = &Economics{Heating: &HeatingBasis{PricePerKWh: ptr(0.05)}}
+	set.CostTable = CostTable{{Material: mat, NominalSize: "any", ThicknessMM: 50, CostPerM: 30}}
+	out, err := Analyse(set.Effective("indoor", in, Fittings{}), CatalogResolver{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if out.EconomicsAsSpecified == nil || out.EconomicsAsSpecified.InstalledCost != nil || !hasAssumption(out, `rows of size "flat", cost per m²`) {
+		t.Errorf("a per-metre row priced a flat surface: %+v, assumptions %q", out.EconomicsAsSpecified, out.Assumptions)
+	}
+	set.CostTable = append(set.CostTable, CostRow{Material: mat, NominalSize: "flat", ThicknessMM: 50, CostPerM: 45})
+	out, err = Analyse(set.Effective("indoor", in, Fittings{}), CatalogResolver{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// 45 per m² × 20 m² = 900.
+	if s := out.EconomicsAsSpecified; s == nil || s.InstalledCost == nil || *s.InstalledCost != 900 || !hasAssumption(out, "installed costs per m²") {
+		t.Errorf("flat surface priced %+v, want 45 per m² × 20 m² = 900; assumptions %q", s, out.Assumptions)
 	}
 }

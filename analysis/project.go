@@ -310,7 +310,11 @@ func (p ProjectSettings) Effective(location string, line Input, fit Fittings) In
 			if n := len(in.Layers); n > 0 {
 				mat = in.Layers[n-1].Material
 			}
-			pts, example := CostTable(p.CostTable).Match(mat, in.PipeSize)
+			size := in.PipeSize
+			if in.Geometry == "flat" {
+				size = FlatSize
+			}
+			pts, example := CostTable(p.CostTable).Match(mat, size)
 			e.InstalledCostPerM, e.InstalledCostSource = pts, costFromTable
 			switch {
 			case len(pts) == 0:
@@ -375,11 +379,17 @@ func (in Input) Slugs() (materials []string, jacket string) {
 	return materials, in.Jacket
 }
 
-// AnySize is the nominal size of a cost row that prices every size of its material.
+// AnySize is the nominal size of a cost row that prices every pipe and duct size of its
+// material (per metre).
 const AnySize = "any"
 
-// CostRow is one installed cost in a project's cost table: per metre of pipe or duct
-// (per m² for flat surfaces) of one material, nominal size and thickness. Example rows
+// FlatSize is the "nominal size" of a cost row that prices flat surfaces of its material,
+// per m². A flat surface takes only such rows, and pipes and ducts never do: a cost per
+// metre of pipe is not a cost per m² of tank.
+const FlatSize = "flat"
+
+// CostRow is one installed cost in a project's cost table: per metre of pipe or duct of
+// one material, nominal size and thickness, or per m² of flat surface for size "flat". Example rows
 // are the labelled example the user must replace; results priced with them say so.
 type CostRow struct {
 	Material    string  `json:"material"`     // material slug
@@ -422,7 +432,7 @@ func (t CostTable) Validate() []CostRowError {
 			out = append(out, CostRowError{i, "material", "is longer than 100 characters"})
 		}
 		if NormalSize(r.NominalSize) == "" {
-			out = append(out, CostRowError{i, "nominal_size", `is required (a nominal size such as "NPS 4", "DN100", or "any")`})
+			out = append(out, CostRowError{i, "nominal_size", `is required (a nominal size such as "NPS 4", "DN100", "any", or "flat" for flat surfaces per m²)`})
 		}
 		if !(r.ThicknessMM > 0 && r.ThicknessMM <= maxThicknessMM) {
 			out = append(out, CostRowError{i, "thickness_mm", fmt.Sprintf("must be greater than 0 and at most %d mm", maxThicknessMM)})
@@ -442,8 +452,9 @@ func (t CostTable) Validate() []CostRowError {
 
 // Match gives the installed cost points of a material at a nominal size, ascending by
 // thickness: for each thickness the row of that exact size wins over the "any" row.
-// example reports whether any point came from an example row. A line without a
-// nominal size (plain OD, ducts, flats) matches only "any" rows.
+// example reports whether any point came from an example row. A pipe or duct without a
+// nominal size (plain OD, ducts) matches only "any" rows; size "flat" (flat surfaces)
+// matches only "flat" rows, per m².
 func (t CostTable) Match(material, size string) (points []CostPoint, example bool) {
 	want := NormalSize(size)
 	type pick struct {
@@ -457,7 +468,7 @@ func (t CostTable) Match(material, size string) (points []CostPoint, example boo
 		}
 		rs := NormalSize(r.NominalSize)
 		exact := want != "" && want != AnySize && rs == want
-		if !exact && rs != AnySize {
+		if !exact && (rs != AnySize || want == FlatSize) {
 			continue
 		}
 		k := round(r.ThicknessMM, 2)
@@ -492,6 +503,8 @@ func NormalSize(s string) string {
 		return ""
 	case "any", "*", "all":
 		return AnySize
+	case "flat", "flats", "flat surface", "flat surfaces":
+		return FlatSize
 	}
 	prefix := "NPS "
 	for _, p := range []struct{ in, out string }{{"nps", "NPS "}, {"dn", "DN"}, {"cts", "CTS "}} {

@@ -6,10 +6,17 @@ import (
 
 	"github.com/a-h/templ"
 
+	"lagwright/results"
 	"lagwright/store"
 	"lagwright/units"
 	"lagwright/web"
 )
+
+// currencyOf is the ISO 4217 code of a project's money figures.
+func currencyOf(p store.Project) string {
+	set, _ := results.Settings(p) // unreadable settings: the default currency
+	return set.Economics.CurrencyCode()
+}
 
 // costsView builds the cost-table screen around rows as they are (stored or typed).
 func (s *Server) costsView(p store.Project, lib *store.Library, rows []web.CostRowView) web.CostsView {
@@ -23,6 +30,8 @@ func (s *Server) costsView(p store.Project, lib *store.Library, rows []web.CostR
 		Version:       p.Version,
 		ThicknessUnit: units.Label(units.Length, sys),
 		CostUnit:      costUnit(sys),
+		FlatCostUnit:  flatCostUnit(sys),
+		Currency:      currencyOf(p),
 		Rows:          rows,
 	}
 	for range blankCostRows {

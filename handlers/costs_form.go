@@ -17,27 +17,42 @@ import (
 // blankCostRows are the empty rows offered below the table for adding by hand.
 const blankCostRows = 3
 
-// costPerLength converts a cost per display length to per metre and back: per ft in US
-// units (1 ft = 0.3048 m exactly).
-func costToSI(sys units.System, v float64) float64 {
+// costToSI converts a cost per display length to per metre: per ft in US units (1 ft =
+// 0.3048 m exactly). Rows of size "flat" price flat surfaces per area: per ft² in US
+// units (1 ft² = 0.09290304 m² exactly), per m² in SI.
+func costToSI(sys units.System, size string, v float64) float64 {
 	if sys == units.US {
+		if analysis.NormalSize(size) == analysis.FlatSize {
+			return v / (units.Foot * units.Foot)
+		}
 		return v / units.Foot
 	}
 	return v
 }
 
-func costFromSI(sys units.System, v float64) float64 {
+func costFromSI(sys units.System, size string, v float64) float64 {
 	if sys == units.US {
+		if analysis.NormalSize(size) == analysis.FlatSize {
+			return v * units.Foot * units.Foot
+		}
 		return v * units.Foot
 	}
 	return v
 }
 
+// costUnit is the unit of a pipe or duct row's cost; flatCostUnit of a "flat" row's.
 func costUnit(sys units.System) string {
 	if sys == units.US {
 		return "per ft"
 	}
 	return "per m"
+}
+
+func flatCostUnit(sys units.System) string {
+	if sys == units.US {
+		return "per ft²"
+	}
+	return "per m²"
 }
 
 // costText writes a cost for the form: up to 2 decimals, no trailing zeros.
@@ -217,11 +232,11 @@ func costRow(sys units.System, resolve func(string) (string, bool), mat, size, t
 		row.Material = slug
 	}
 	if norm := analysis.NormalSize(size); norm == "" {
-		problems = append(problems, fmt.Sprintf(`size: %q is not a nominal size ("NPS 4", "4", "DN100", "CTS 1") or "any"`, size))
+		problems = append(problems, fmt.Sprintf(`size: %q is not a nominal size ("NPS 4", "4", "DN100", "CTS 1"), "any" or "flat"`, size))
 	} else {
 		row.NominalSize = strings.TrimSpace(size)
-		if norm == analysis.AnySize {
-			row.NominalSize = analysis.AnySize
+		if norm == analysis.AnySize || norm == analysis.FlatSize {
+			row.NominalSize = norm
 		}
 	}
 	if t, err := units.Parse(units.Length, sys, thick); err != nil {
@@ -236,7 +251,7 @@ func costRow(sys units.System, resolve func(string) (string, bool), mat, size, t
 	} else if c < 0 {
 		problems = append(problems, "cost: must not be negative")
 	} else {
-		row.CostPerM = costToSI(sys, c)
+		row.CostPerM = costToSI(sys, size, c)
 	}
 	return row, problems
 }
@@ -245,7 +260,7 @@ func costRow(sys units.System, resolve func(string) (string, bool), mat, size, t
 func costRowsView(t analysis.CostTable, sys units.System) []web.CostRowView {
 	out := make([]web.CostRowView, 0, len(t)+blankCostRows)
 	for _, r := range t {
-		c := costText(costFromSI(sys, r.CostPerM))
+		c := costText(costFromSI(sys, r.NominalSize, r.CostPerM))
 		out = append(out, web.CostRowView{Material: r.Material, Size: r.NominalSize,
 			Thickness: units.Format(units.Length, sys, r.ThicknessMM), Cost: c, OrigCost: c, Example: r.Example})
 	}

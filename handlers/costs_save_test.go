@@ -10,6 +10,7 @@ import (
 
 	"lagwright/results"
 	"lagwright/store/storetest"
+	"lagwright/units"
 )
 
 func TestCostTable(t *testing.T) {
@@ -22,7 +23,7 @@ func TestCostTable(t *testing.T) {
 	ctx := context.Background()
 
 	rec := do(t, h, "GET", target, nil, nil)
-	if rec.Code != 200 || !strings.Contains(rec.Body.String(), "Cost per ft") || !strings.Contains(rec.Body.String(), "Thickness, in") {
+	if rec.Code != 200 || !strings.Contains(rec.Body.String(), "Cost, USD per ft (size flat: per ft²)") || !strings.Contains(rec.Body.String(), "Thickness, in") {
 		t.Fatalf("GET costs = %d; US labels missing", rec.Code)
 	}
 
@@ -89,5 +90,26 @@ func TestCostTable(t *testing.T) {
 	}
 	if examples == 0 || examples != len(gs.CostTable)-2 { // two user rows; the user's "any 1-1/2" shadows one example row
 		t.Errorf("%d example rows of %d", examples, len(gs.CostTable))
+	}
+}
+
+// TestCostRowFlatPerArea: in US units a pipe row's cost is per ft and a "flat" row's per
+// ft², each stored per m or per m² (1 ft = 0.3048 m, 1 ft² = 0.09290304 m², exact).
+func TestCostRowFlatPerArea(t *testing.T) {
+	resolve := func(s string) (string, bool) { return s, true }
+	for _, c := range []struct {
+		size string
+		want float64
+	}{{"any", 10 / 0.3048}, {"NPS 4", 10 / 0.3048}, {"flat", 10 / 0.09290304}} {
+		row, problems := costRow(units.US, resolve, "mineral_fiber_board_c612", c.size, "2", "10")
+		if len(problems) > 0 {
+			t.Fatalf("%s: %v", c.size, problems)
+		}
+		if d := row.CostPerM - c.want; d > 1e-9 || d < -1e-9 {
+			t.Errorf("size %s: 10 a US unit stored as %.6f, want %.6f", c.size, row.CostPerM, c.want)
+		}
+		if back := costFromSI(units.US, row.NominalSize, row.CostPerM); back < 9.999999 || back > 10.000001 {
+			t.Errorf("size %s: shown back as %g", c.size, back)
+		}
 	}
 }

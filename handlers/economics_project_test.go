@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"net/url"
+	"regexp"
 	"strconv"
 	"strings"
 	"testing"
@@ -83,6 +84,13 @@ func TestProjectEconomics(t *testing.T) {
 	got, err := st.UpdateProject(context.Background(), got)
 	if err != nil {
 		t.Fatal(err)
+	}
+	// Without installed costs there is no investment and no payback: "—", never "0.0".
+	body = do(t, h, "GET", target, nil, nil).Body.String()
+	row := regexp.MustCompile(`(?s)<tr data-scenario="specified" data-basis="heating">.*?</tr>`).FindString(body)
+	cells := regexp.MustCompile(`<td class="num">([^<]*)</td>`).FindAllStringSubmatch(row, -1)
+	if n := len(cells); n < 2 || cells[n-2][1] != "—" || cells[n-1][1] != "—" || !strings.Contains(row, "no installed costs") {
+		t.Errorf("as specified without costs: %q, want investment and payback —", row)
 	}
 	rec = do(t, h, "POST", fmt.Sprintf("/projects/%d/costs/example", p.ID), strings.NewReader(url.Values{"version": {strconv.Itoa(got.Version)}}.Encode()),
 		map[string]string{"Content-Type": "application/x-www-form-urlencoded"})
