@@ -9,6 +9,7 @@ import (
 
 	"lagwright/calc"
 	"lagwright/catalog"
+	"lagwright/field"
 )
 
 // Caution is shown with every result: the estimates stand on published methods, and
@@ -16,11 +17,11 @@ import (
 const Caution = "Estimates by published methods (ASTM C680 / ISO 12241 approach). Actual performance depends on " +
 	"workmanship, moisture, ageing and jacket condition. The adopted codes and a licensed engineer govern where the work is built."
 
-// Run decodes one JSON request and analyses it. Bad input returns FieldErrors.
+// Run decodes one JSON request and analyses it. Bad input returns field.Errors.
 func Run(data []byte, r Resolver) (*Output, error) {
 	var in Input
 	decodeErr := DecodeStrict(data, &in)
-	var decoded FieldErrors
+	var decoded field.Errors
 	if decodeErr != nil {
 		if !errors.As(decodeErr, &decoded) || (len(decoded) == 1 && decoded[0].Field == "") {
 			return nil, decodeErr // not an object: nothing more to say
@@ -29,7 +30,7 @@ func Run(data []byte, r Resolver) (*Output, error) {
 	// Validate what could be read too, so every bad field is named at once; a field that
 	// could not be read is reported once, for its type.
 	out, err := Analyse(in, r)
-	var checked FieldErrors
+	var checked field.Errors
 	if err != nil && !errors.As(err, &checked) {
 		return nil, err
 	}
@@ -38,11 +39,11 @@ func Run(data []byte, r Resolver) (*Output, error) {
 	}
 	all := slices.Clone(decoded)
 	for _, fe := range checked {
-		if !slices.ContainsFunc(decoded, func(d FieldError) bool { return d.Field == fe.Field }) {
+		if !slices.ContainsFunc(decoded, func(d field.Error) bool { return d.Field == fe.Field }) {
 			all = append(all, fe)
 		}
 	}
-	slices.SortStableFunc(all, func(a, b FieldError) int { return strings.Compare(a.Field, b.Field) })
+	slices.SortStableFunc(all, func(a, b field.Error) int { return strings.Compare(a.Field, b.Field) })
 	return nil, all
 }
 

@@ -7,6 +7,8 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"lagwright/field"
 )
 
 // run analyses a JSON literal with the catalog resolver and fails the test on error.
@@ -22,10 +24,10 @@ func mustRun(t *testing.T, js string) *Output {
 	return out
 }
 
-func fieldErrors(t *testing.T, js string) FieldErrors {
+func fieldErrors(t *testing.T, js string) field.Errors {
 	t.Helper()
 	_, err := Run([]byte(js), CatalogResolver{})
-	var fe FieldErrors
+	var fe field.Errors
 	if !errors.As(err, &fe) {
 		t.Fatalf("want field errors, got %v", err)
 	}

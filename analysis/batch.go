@@ -2,15 +2,18 @@ package analysis
 
 import (
 	"encoding/json"
+	"errors"
 	"runtime"
 	"sync"
+
+	"lagwright/field"
 )
 
 // Stored is a line's stored answer: the analysis, or the field errors that kept it
 // from being computed (so a line with a problem is not recomputed on every view).
 type Stored struct {
-	Output *Output     `json:"output,omitempty"`
-	Errors FieldErrors `json:"errors,omitempty"`
+	Output *Output      `json:"output,omitempty"`
+	Errors field.Errors `json:"errors,omitempty"`
 }
 
 // Marshal encodes the stored answer.
@@ -32,7 +35,8 @@ func AnalyseMany(inputs []Input, r Resolver) ([]Stored, error) {
 		wg.Go(func() {
 			for i := range next {
 				o, err := Analyse(inputs[i], r)
-				if fe, ok := err.(FieldErrors); ok {
+				var fe field.Errors
+				if errors.As(err, &fe) {
 					out[i] = Stored{Errors: fe}
 					continue
 				}

@@ -6,6 +6,8 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"lagwright/field"
 )
 
 func hasAssumption(out *Output, part string) bool {
@@ -95,7 +97,7 @@ func TestRepeatedCostThicknessIsAFieldError(t *testing.T) {
 		"economics":{"heating":{"price_per_kwh":0.06},"installed_cost_per_m":[{"thickness_mm":25.4,"cost":40},{"thickness_mm":25.4,"cost":48}],
 		"installed_cost_source":"guess"}}`)
 	for _, want := range []string{"economics.installed_cost_per_m[1].thickness_mm", "economics.installed_cost_source"} {
-		if !slices.ContainsFunc(fe, func(f FieldError) bool { return f.Field == want }) {
+		if !slices.ContainsFunc(fe, func(f field.Error) bool { return f.Field == want }) {
 			t.Errorf("no error on %s: %v", want, fe)
 		}
 	}
@@ -319,11 +321,11 @@ func TestEconomicsFieldErrors(t *testing.T) {
 		"layers":[{"k_w_mk":0.04,"thickness_mm":25.4}],"surface_emittance":0.9,"economics":{"energy_price_per_kwh":0.06}}`)...)
 	for _, want := range []string{"economics.energy_price_per_kwh", "economics.currency", "economics.heating.price_per_kwh",
 		"economics.heating.efficiency", "economics.cooling.cop"} {
-		if !slices.ContainsFunc(fe, func(f FieldError) bool { return f.Field == want }) {
+		if !slices.ContainsFunc(fe, func(f field.Error) bool { return f.Field == want }) {
 			t.Errorf("no error on %s: %v", want, fe)
 		}
 	}
-	if i := slices.IndexFunc(fe, func(f FieldError) bool { return f.Field == "economics.energy_price_per_kwh" }); i >= 0 &&
+	if i := slices.IndexFunc(fe, func(f field.Error) bool { return f.Field == "economics.energy_price_per_kwh" }); i >= 0 &&
 		!strings.Contains(fe[i].Message, "heating.price_per_kwh") {
 		t.Errorf("the moved key's message %q does not say where it went", fe[i].Message)
 	}

@@ -5,6 +5,8 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"lagwright/field"
 )
 
 const steamMain = `{"geometry":"pipe","pipe_size":"NPS 4","steam_gauge_pressure_kpa":700,"ambient_temp_c":20,
@@ -96,14 +98,14 @@ func TestFittingInputErrors(t *testing.T) {
 	fe := fieldErrors(t, steamMain+`,"fittings":{"valves":-1},"fitting_finish":{"valves":"painted"},
 		"supports":{"kind":"hanger","spacing_m":0.1},"fitting_cover":{"jacket":"gold"}}`)
 	for _, f := range []string{"fittings.valves", "fitting_finish.valves", "supports.kind", "supports.spacing_m", "fitting_cover.jacket"} {
-		if !slices.ContainsFunc(fe, func(e FieldError) bool { return e.Field == f }) {
+		if !slices.ContainsFunc(fe, func(e field.Error) bool { return e.Field == f }) {
 			t.Errorf("no error for %s: %v", f, fe)
 		}
 	}
 	fe = fieldErrors(t, `{"geometry":"flat","operating_temp_c":80,"ambient_temp_c":20,"area_m2":4,"surface_emittance":0.9,
 		"fittings":{"valves":1},"supports":{"kind":"clamp"}}`)
-	if !slices.ContainsFunc(fe, func(e FieldError) bool { return e.Field == "fittings" }) ||
-		!slices.ContainsFunc(fe, func(e FieldError) bool { return e.Field == "supports" }) {
+	if !slices.ContainsFunc(fe, func(e field.Error) bool { return e.Field == "fittings" }) ||
+		!slices.ContainsFunc(fe, func(e field.Error) bool { return e.Field == "supports" }) {
 		t.Errorf("flat surface with fittings and supports: %v", fe)
 	}
 }

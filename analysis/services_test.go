@@ -5,10 +5,12 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"lagwright/field"
 )
 
-// fieldNames lists the fields a FieldErrors names.
-func fieldNames(fe FieldErrors) []string {
+// fieldNames lists the fields a field.Errors names.
+func fieldNames(fe field.Errors) []string {
 	var out []string
 	for _, e := range fe {
 		out = append(out, e.Field)

@@ -228,7 +228,7 @@ func orDefault(p *float64, d float64) float64 {
 func ptr[T any](v T) *T { return &v }
 
 // resolve validates the input and resolves sizes, materials, jackets and conditions.
-// Every problem is reported at once as FieldErrors.
+// Every problem is reported at once as field.Errors.
 func resolve(in Input, r Resolver) (*line, error) {
 	var c errs
 	l := new(line) // set field by field: a composite literal would copy a whole zero line

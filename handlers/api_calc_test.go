@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"lagwright/analysis"
+	"lagwright/field"
 	"lagwright/store/storetest"
 )
 
@@ -37,7 +38,7 @@ func TestAPICalc(t *testing.T) {
 		t.Fatalf("bad input: status %d", rec.Code)
 	}
 	var doc struct {
-		Errors []FieldError `json:"errors"`
+		Errors []field.Error `json:"errors"`
 	}
 	if err := json.Unmarshal(rec.Body.Bytes(), &doc); err != nil {
 		t.Fatal(err)

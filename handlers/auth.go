@@ -14,6 +14,7 @@ import (
 
 	"github.com/a-h/templ"
 
+	"lagwright/field"
 	"lagwright/store"
 	"lagwright/web"
 )
@@ -234,7 +235,7 @@ func badForm(err error) error {
 	if errors.As(err, &tooLarge) || errors.As(err, &bodyErr) {
 		return err
 	}
-	return Invalid(FieldError{Message: "the form could not be read"})
+	return Invalid(field.Error{Message: "the form could not be read"})
 }
 
 // localPath keeps next only when it is a path on this site ("/…", not "//host" or
@@ -288,7 +289,7 @@ func (s *Server) readForm(next http.Handler) http.Handler {
 			return
 		}
 		if !cleanValues(r.PostForm) || (r.MultipartForm != nil && !cleanValues(r.MultipartForm.Value)) {
-			s.fail(w, r, Invalid(FieldError{Message: "the form holds invalid characters (not UTF-8, or NUL)"}))
+			s.fail(w, r, Invalid(field.Error{Message: "the form holds invalid characters (not UTF-8, or NUL)"}))
 			return
 		}
 		next.ServeHTTP(w, r)

@@ -11,6 +11,7 @@ import (
 	"github.com/a-h/templ"
 
 	"lagwright/analysis"
+	"lagwright/field"
 	"lagwright/store"
 	"lagwright/units"
 	"lagwright/web"
@@ -116,7 +117,7 @@ func (s *Server) comparePage(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	if len(c.Own.Layers) == 0 {
-		s.fail(w, r, Invalid(FieldError{Field: "layers", Message: "this line is bare: add an insulation layer on the line page to compare thicknesses"}))
+		s.fail(w, r, Invalid(field.Error{Field: "layers", Message: "this line is bare: add an insulation layer on the line page to compare thicknesses"}))
 		return
 	}
 	lib, err := s.library(r.Context())
@@ -133,7 +134,7 @@ func (s *Server) comparePage(w http.ResponseWriter, r *http.Request) {
 	alt := r.URL.Query().Get("alt")
 	if alt != "" && alt != cmpOuterMaterial(c.Own) {
 		if _, ok := lib.Material(alt); !ok {
-			s.fail(w, r, Invalid(FieldError{Field: "alt", Message: "no such material in the library"}))
+			s.fail(w, r, Invalid(field.Error{Field: "alt", Message: "no such material in the library"}))
 			return
 		}
 		side, err := cmpCompareSide(c.Set, c.Line, cmpWithMaterial(c.Own, alt), c.Fit, lib)

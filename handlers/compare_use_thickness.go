@@ -4,6 +4,8 @@ import (
 	"encoding/json"
 	"net/http"
 	"strconv"
+
+	"lagwright/field"
 )
 
 // compareUseThickness handles POST /projects/{id}/lines/{line}/thickness: it sets the
@@ -20,18 +22,18 @@ func (s *Server) compareUseThickness(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	var problems []FieldError
+	var problems []field.Error
 	t, err := strconv.ParseFloat(r.PostForm.Get("thickness_mm"), 64)
 	if err != nil || !(t > 0 && t <= 600) {
-		problems = append(problems, FieldError{Field: "thickness_mm", Message: "must be a thickness greater than 0 and at most 600 mm"})
+		problems = append(problems, field.Error{Field: "thickness_mm", Message: "must be a thickness greater than 0 and at most 600 mm"})
 	}
 	version, err := parseVersion(r.PostForm.Get("version"))
 	if err != nil {
-		problems = append(problems, FieldError{Field: "version", Message: "is required (the version of the line you saw)"})
+		problems = append(problems, field.Error{Field: "version", Message: "is required (the version of the line you saw)"})
 	}
 	n := len(c.Own.Layers)
 	if n == 0 {
-		problems = append(problems, FieldError{Field: "layers", Message: "the line is bare: add an insulation layer first"})
+		problems = append(problems, field.Error{Field: "layers", Message: "the line is bare: add an insulation layer first"})
 	}
 	if len(problems) > 0 {
 		s.fail(w, r, Invalid(problems...))

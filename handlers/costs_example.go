@@ -6,6 +6,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/catalog"
+	"lagwright/field"
 	"lagwright/results"
 )
 
@@ -21,7 +22,7 @@ func (s *Server) costsExample(w http.ResponseWriter, r *http.Request) {
 	}
 	version, err := parseVersion(r.PostForm.Get("version"))
 	if err != nil {
-		s.fail(w, r, Invalid(FieldError{Field: "version", Message: "is required (the version of the project you saw)"}))
+		s.fail(w, r, Invalid(field.Error{Field: "version", Message: "is required (the version of the project you saw)"}))
 		return
 	}
 	lib, err := s.library(r.Context())

@@ -11,7 +11,7 @@ import (
 	"github.com/a-h/templ"
 	"github.com/jackc/pgx/v5/pgconn"
 
-	"lagwright/analysis"
+	"lagwright/field"
 	"lagwright/store"
 	"lagwright/web"
 )
@@ -34,18 +34,12 @@ const (
 	CodeTimeout          Code = "timeout"      // 408: the body came too slowly
 )
 
-// FieldError names one bad input field ("" for the request as a whole).
-type FieldError struct {
-	Field   string `json:"field"`
-	Message string `json:"message"`
-}
-
 // Error is the one application error type: a code and a message safe to show.
 // Err, when set, is the cause; it is logged (for internal errors), never shown.
 type Error struct {
 	Code    Code
 	Message string
-	Fields  []FieldError
+	Fields  []field.Error
 	Err     error
 }
 
@@ -64,7 +58,7 @@ func NotFound(what string) *Error {
 }
 
 // Invalid carries field errors (answered with 422).
-func Invalid(fields ...FieldError) *Error {
+func Invalid(fields ...field.Error) *Error {
 	return &Error{Code: CodeInvalid, Message: "Please correct the marked fields.", Fields: fields}
 }
 
@@ -75,13 +69,9 @@ func classify(err error) *Error {
 	if errors.As(err, &appErr) {
 		return appErr
 	}
-	var fe analysis.FieldErrors
+	var fe field.Errors
 	if errors.As(err, &fe) {
-		fields := make([]FieldError, len(fe))
-		for i, f := range fe {
-			fields[i] = FieldError{Field: f.Field, Message: f.Message}
-		}
-		return Invalid(fields...)
+		return Invalid(fe...)
 	}
 	var pgErr *pgconn.PgError
 	var dupTags *store.DuplicateTagsError
@@ -113,7 +103,7 @@ func classify(err error) *Error {
 	case errors.As(err, &pgErr) && strings.HasPrefix(pgErr.Code, "22"):
 		// data_exception: a value the column cannot hold (a NUL in text, an out-of-range number)
 		return &Error{Code: CodeInvalid, Message: "The input holds a value the database cannot store.",
-			Fields: []FieldError{{Message: "a value is out of range or holds characters that cannot be stored"}}, Err: err}
+			Fields: []field.Error{{Message: "a value is out of range or holds characters that cannot be stored"}}, Err: err}
 	case errors.Is(err, context.DeadlineExceeded):
 		// the store's statement or acquire deadline passed (store/timeouts.go)
 		return &Error{Code: CodeUnavailable, Message: "The database did not answer in time; try again shortly.", Err: err}
@@ -172,13 +162,13 @@ func (s *Server) fail(w http.ResponseWriter, r *http.Request, err error) {
 	if wantsJSON(r) {
 		fields := e.Fields
 		if len(fields) == 0 {
-			fields = []FieldError{{Field: "", Message: e.Message}}
+			fields = []field.Error{{Field: "", Message: e.Message}}
 		}
 		w.Header().Set("Content-Type", "application/json; charset=utf-8")
 		w.Header().Set("Cache-Control", "no-store")
 		w.WriteHeader(status)
 		_ = json.NewEncoder(w).Encode(struct {
-			Errors []FieldError `json:"errors"`
+			Errors []field.Error `json:"errors"`
 		}{fields})
 		return
 	}

@@ -16,6 +16,7 @@ import (
 
 	"github.com/jackc/pgx/v5/pgconn"
 
+	"lagwright/field"
 	"lagwright/store"
 	"lagwright/store/storetest"
 )
@@ -196,7 +197,7 @@ func TestFailMapping(t *testing.T) {
 		{"in use", &pgconn.PgError{Code: "23503"}, 409, "It is in use elsewhere, or refers to something missing.", false},
 		{"statement timeout", &pgconn.PgError{Code: "57014"}, 503, "The database is busy or unavailable; try again shortly.", true},
 		{"deadline", context.DeadlineExceeded, 503, "The database did not answer in time; try again shortly.", true},
-		{"invalid", Invalid(FieldError{"name", "must not be empty"}), 422, "must not be empty", false},
+		{"invalid", Invalid(field.Error{Field: "name", Message: "must not be empty"}), 422, "must not be empty", false},
 		{"internal", errors.New("secret detail xyzzy"), 500, "Something went wrong on our side; it has been logged.", true},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
@@ -217,7 +218,7 @@ func TestFailMapping(t *testing.T) {
 				}
 				if api {
 					var got struct {
-						Errors []FieldError `json:"errors"`
+						Errors []field.Error `json:"errors"`
 					}
 					if err := json.Unmarshal(rec.Body.Bytes(), &got); err != nil || len(got.Errors) != 1 || got.Errors[0].Message != tc.message {
 						t.Errorf("api: body = %s, want one error %q", body, tc.message)
@@ -235,7 +236,7 @@ func TestFailMapping(t *testing.T) {
 	rec := httptest.NewRecorder()
 	req := httptest.NewRequest("POST", "/projects", nil)
 	req.Header.Set("Accept", "application/json")
-	s.fail(rec, req, Invalid(FieldError{"layers[0].thickness_mm", "must be greater than 0"}))
+	s.fail(rec, req, Invalid(field.Error{Field: "layers[0].thickness_mm", Message: "must be greater than 0"}))
 	if want := `{"errors":[{"field":"layers[0].thickness_mm","message":"must be greater than 0"}]}` + "\n"; rec.Body.String() != want {
 		t.Errorf("JSON body = %s, want %s", rec.Body, want)
 	}

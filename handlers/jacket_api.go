@@ -6,6 +6,7 @@ import (
 
 	"github.com/go-chi/chi/v5"
 
+	"lagwright/field"
 	"lagwright/store"
 )
 
@@ -46,7 +47,7 @@ type jacketPatch struct {
 	Version        *int     `json:"version"`
 }
 
-func (p jacketPatch) apply(j *store.Jacket) []FieldError {
+func (p jacketPatch) apply(j *store.Jacket) []field.Error {
 	if p.Name != nil {
 		j.Name = *p.Name
 	}
@@ -66,7 +67,7 @@ func (p jacketPatch) apply(j *store.Jacket) []FieldError {
 		j.Source = *p.Source
 	}
 	if p.Builtin != nil && *p.Builtin {
-		return []FieldError{{Field: "builtin", Message: "only custom jackets can be created or changed"}}
+		return []field.Error{{Field: "builtin", Message: "only custom jackets can be created or changed"}}
 	}
 	return nil
 }
@@ -107,7 +108,7 @@ func (s *Server) apiJacketCreate(w http.ResponseWriter, r *http.Request) {
 		j.Slug = *p.Slug
 	}
 	if p.Emittance == nil {
-		s.fail(w, r, Invalid(FieldError{Field: "emittance", Message: "is required"}))
+		s.fail(w, r, Invalid(field.Error{Field: "emittance", Message: "is required"}))
 		return
 	}
 	if fe := p.apply(&j); len(fe) > 0 {
@@ -140,14 +141,14 @@ func (s *Server) apiJacketPatch(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, libraryError("jacket", store.ErrBuiltin))
 		return
 	}
-	var fe []FieldError
+	var fe []field.Error
 	if msg := versionProblem(p.Version); msg != "" {
-		fe = append(fe, FieldError{Field: "version", Message: msg})
+		fe = append(fe, field.Error{Field: "version", Message: msg})
 	} else {
 		j.Version = *p.Version
 	}
 	if p.Slug != nil && *p.Slug != slug {
-		fe = append(fe, FieldError{Field: "slug", Message: "cannot be changed"})
+		fe = append(fe, field.Error{Field: "slug", Message: "cannot be changed"})
 	}
 	fe = append(fe, p.apply(&j)...)
 	if len(fe) > 0 {

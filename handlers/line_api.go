@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"lagwright/analysis"
+	"lagwright/field"
 	"lagwright/results"
 	"lagwright/store"
 )
@@ -89,7 +90,7 @@ func (s *Server) decodeLineBody(ctx context.Context, set analysis.ProjectSetting
 		input["layers"] = []any{}
 	}
 	var lm lineMeta
-	var fe analysis.FieldErrors
+	var fe field.Errors
 	js, _ := json.Marshal(meta)
 	if err := analysis.DecodeStrict(js, &lm); err != nil {
 		fe = append(fe, asFieldErrors(err)...)
@@ -112,7 +113,7 @@ func (s *Server) decodeLineBody(ctx context.Context, set analysis.ProjectSetting
 	}
 	fe = addMissing(fe, stored.Errors)
 	if len(fe) > 0 {
-		slices.SortStableFunc(fe, func(a, b analysis.FieldError) int { return strings.Compare(a.Field, b.Field) })
+		slices.SortStableFunc(fe, func(a, b field.Error) int { return strings.Compare(a.Field, b.Field) })
 		return lf, row, fe
 	}
 	row.Result, row.ResultHash = stored.Marshal(), hash
@@ -120,9 +121,9 @@ func (s *Server) decodeLineBody(ctx context.Context, set analysis.ProjectSetting
 }
 
 // addMissing appends the errors of more whose field has none yet.
-func addMissing(fe, more analysis.FieldErrors) analysis.FieldErrors {
+func addMissing(fe, more field.Errors) field.Errors {
 	for _, e := range more {
-		if !slices.ContainsFunc(fe, func(d analysis.FieldError) bool {
+		if !slices.ContainsFunc(fe, func(d field.Error) bool {
 			return d.Field == e.Field || strings.HasPrefix(e.Field, d.Field+".") || strings.HasPrefix(e.Field, d.Field+"[")
 		}) {
 			fe = append(fe, e)
@@ -211,7 +212,7 @@ func (s *Server) apiLinePatch(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	if msg := versionProblem(lf.Version); msg != "" {
-		s.fail(w, r, Invalid(FieldError{Field: "version", Message: msg}))
+		s.fail(w, r, Invalid(field.Error{Field: "version", Message: msg}))
 		return
 	}
 	row.ID, row.Version = l.ID, *lf.Version

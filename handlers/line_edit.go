@@ -11,6 +11,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/catalog"
+	"lagwright/field"
 	"lagwright/results"
 	"lagwright/store"
 	"lagwright/units"
@@ -119,7 +120,7 @@ func (s *Server) compute(ctx context.Context, c *lineCtx, lf lineFields) (analys
 	l := lf.line(c.p.ID)
 	st, hash, err := s.results.Compute(c.lib, c.set, l, lf.Input, lf.Fittings)
 	if err != nil {
-		st = analysis.Stored{Errors: analysis.FieldErrors{{Message: "The calculation failed: " + err.Error()}}}
+		st = analysis.Stored{Errors: field.Errors{{Message: "The calculation failed: " + err.Error()}}}
 	}
 	return st, hash, c.set.Effective(lf.Location, lf.Input, lf.Fittings)
 }

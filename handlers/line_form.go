@@ -9,6 +9,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/catalog"
+	"lagwright/field"
 	"lagwright/store"
 	"lagwright/units"
 	"lagwright/web"
@@ -74,9 +75,9 @@ type lineFields struct {
 }
 
 // validateMeta checks the line's own columns into field errors.
-func (l *lineFields) validateMeta() analysis.FieldErrors {
-	var fe analysis.FieldErrors
-	add := func(f, m string) { fe = append(fe, analysis.FieldError{Field: f, Message: m}) }
+func (l *lineFields) validateMeta() field.Errors {
+	var fe field.Errors
+	add := func(f, m string) { fe = append(fe, field.Error{Field: f, Message: m}) }
 	l.Tag, l.Service = strings.TrimSpace(l.Tag), strings.TrimSpace(l.Service)
 	switch {
 	case l.Tag == "":

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"lagwright/analysis"
+	"lagwright/field"
 	"lagwright/units"
 	"lagwright/web"
 )
@@ -163,7 +164,7 @@ func buildResults(eff analysis.Input, st analysis.Stored, sys units.System, name
 }
 
 // problemText writes a field error for people.
-func lineProblemText(e analysis.FieldError) string {
+func lineProblemText(e field.Error) string {
 	if e.Field == "" {
 		return e.Message
 	}

@@ -12,6 +12,7 @@ import (
 	"github.com/go-chi/chi/v5"
 
 	"lagwright/catalog"
+	"lagwright/field"
 	"lagwright/store"
 )
 
@@ -69,8 +70,8 @@ type materialPatch struct {
 }
 
 // apply writes the given keys onto m and returns the problems of shape.
-func (p materialPatch) apply(m *store.Material) []FieldError {
-	var fe []FieldError
+func (p materialPatch) apply(m *store.Material) []field.Error {
+	var fe []field.Error
 	setS := func(dst *string, v *string) {
 		if v != nil {
 			*dst = *v
@@ -99,14 +100,14 @@ func (p materialPatch) apply(m *store.Material) []FieldError {
 		m.KPoints = nil
 		for i, pt := range *p.KPoints {
 			if len(pt) != 2 {
-				fe = append(fe, FieldError{Field: fmt.Sprintf("k_points[%d]", i), Message: "must be [mean_temp_c, k_w_mk]"})
+				fe = append(fe, field.Error{Field: fmt.Sprintf("k_points[%d]", i), Message: "must be [mean_temp_c, k_w_mk]"})
 				continue
 			}
 			m.KPoints = append(m.KPoints, catalog.KPoint{MeanC: pt[0], K: pt[1]})
 		}
 	}
 	if p.Builtin != nil && *p.Builtin {
-		fe = append(fe, FieldError{Field: "builtin", Message: "only custom materials can be created or changed"})
+		fe = append(fe, field.Error{Field: "builtin", Message: "only custom materials can be created or changed"})
 	}
 	return fe
 }
@@ -118,7 +119,7 @@ func libDecode(r *http.Request, v any) error {
 	err := dec.Decode(v)
 	if err == nil {
 		if _, extra := dec.Token(); extra != io.EOF {
-			return Invalid(FieldError{Message: "the body must hold one JSON object"})
+			return Invalid(field.Error{Message: "the body must hold one JSON object"})
 		}
 		return nil
 	}
@@ -129,13 +130,13 @@ func libDecode(r *http.Request, v any) error {
 	case errors.As(err, &tooLarge), errors.As(err, &bodyErr):
 		return err
 	case errors.As(err, &typeErr):
-		return Invalid(FieldError{Field: typeErr.Field, Message: "must be a JSON " + typeErr.Type.String()})
+		return Invalid(field.Error{Field: typeErr.Field, Message: "must be a JSON " + typeErr.Type.String()})
 	case strings.HasPrefix(err.Error(), "json: unknown field "):
 		// encoding/json has no typed error for an unknown key; its text is the only carrier.
-		return Invalid(FieldError{Field: strings.Trim(strings.TrimPrefix(err.Error(), "json: unknown field "), `"`),
+		return Invalid(field.Error{Field: strings.Trim(strings.TrimPrefix(err.Error(), "json: unknown field "), `"`),
 			Message: "is not a field of this resource"})
 	}
-	return Invalid(FieldError{Message: "the body is not valid JSON"})
+	return Invalid(field.Error{Message: "the body is not valid JSON"})
 }
 
 // apiMaterialList answers GET /api/v1/materials: every material, built-in and custom.
@@ -201,14 +202,14 @@ func (s *Server) apiMaterialPatch(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, libraryError("material", err))
 		return
 	}
-	var fe []FieldError
+	var fe []field.Error
 	if msg := versionProblem(p.Version); msg != "" {
-		fe = append(fe, FieldError{Field: "version", Message: msg})
+		fe = append(fe, field.Error{Field: "version", Message: msg})
 	} else {
 		m.Version = *p.Version
 	}
 	if p.Slug != nil && *p.Slug != slug {
-		fe = append(fe, FieldError{Field: "slug", Message: "cannot be changed"})
+		fe = append(fe, field.Error{Field: "slug", Message: "cannot be changed"})
 	}
 	fe = append(fe, p.apply(&m)...)
 	if m.Builtin {

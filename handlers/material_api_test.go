@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"lagwright/catalog"
+	"lagwright/field"
 	"lagwright/store"
 	"lagwright/store/storetest"
 )
@@ -24,7 +25,7 @@ func jsonHeader() map[string]string { return map[string]string{"Content-Type": "
 func errorFields(t *testing.T, body []byte) []string {
 	t.Helper()
 	var doc struct {
-		Errors []FieldError `json:"errors"`
+		Errors []field.Error `json:"errors"`
 	}
 	if err := json.Unmarshal(body, &doc); err != nil {
 		t.Fatalf("error body %s: %v", body, err)

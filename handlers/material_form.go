@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"lagwright/catalog"
+	"lagwright/field"
 	"lagwright/store"
 	"lagwright/units"
 	"lagwright/web"
@@ -241,7 +242,7 @@ var matFormKey = map[string]string{
 
 // addStoreErrors puts the store's validation problems beside the form's fields,
 // keeping any problem already found while reading a field.
-func (f *materialForm) addStoreErrors(fe store.FieldErrors, origins []kOrigin) {
+func (f *materialForm) addStoreErrors(fe field.Errors, origins []kOrigin) {
 	readProblem := f.errors["k_paste"] != ""
 	for _, r := range f.rows {
 		readProblem = readProblem || r.Err != ""

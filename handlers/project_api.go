@@ -12,6 +12,7 @@ import (
 	"time"
 
 	"lagwright/analysis"
+	"lagwright/field"
 	"lagwright/results"
 	"lagwright/store"
 )
@@ -57,13 +58,13 @@ func readJSONObject(r *http.Request) (map[string]any, error) {
 		return nil, err
 	}
 	if len(body) > analysis.MaxInputBytes {
-		return nil, Invalid(FieldError{Message: fmt.Sprintf("request is larger than %d KiB", analysis.MaxInputBytes>>10)})
+		return nil, Invalid(field.Error{Message: fmt.Sprintf("request is larger than %d KiB", analysis.MaxInputBytes>>10)})
 	}
 	dec := json.NewDecoder(bytes.NewReader(body))
 	dec.UseNumber()
 	var m map[string]any
 	if err := dec.Decode(&m); err != nil || m == nil || dec.More() {
-		return nil, Invalid(FieldError{Message: "the body must be one JSON object"})
+		return nil, Invalid(field.Error{Message: "the body must be one JSON object"})
 	}
 	return m, nil
 }
@@ -86,7 +87,7 @@ func readPatch(r *http.Request) (map[string]any, error) {
 		v = new(int)
 	}
 	if msg := versionProblem(v); msg != "" {
-		return nil, Invalid(FieldError{Field: "version", Message: msg})
+		return nil, Invalid(field.Error{Field: "version", Message: msg})
 	}
 	return m, nil
 }
@@ -118,7 +119,7 @@ func decodeProject(m map[string]any) (projectInput, error) {
 	}
 	in := projectInput{Units: "si", Settings: analysis.DefaultSettings()}
 	js, _ := json.Marshal(m)
-	var fe analysis.FieldErrors
+	var fe field.Errors
 	if err := analysis.DecodeStrict(js, &in); err != nil {
 		fe = asFieldErrors(err)
 		if fe == nil {
@@ -126,12 +127,12 @@ func decodeProject(m map[string]any) (projectInput, error) {
 		}
 	}
 	for _, e := range in.validate() {
-		if !slices.ContainsFunc(fe, func(d analysis.FieldError) bool { return d.Field == e.Field }) {
+		if !slices.ContainsFunc(fe, func(d field.Error) bool { return d.Field == e.Field }) {
 			fe = append(fe, e)
 		}
 	}
 	if len(fe) > 0 {
-		slices.SortStableFunc(fe, func(a, b analysis.FieldError) int { return strings.Compare(a.Field, b.Field) })
+		slices.SortStableFunc(fe, func(a, b field.Error) int { return strings.Compare(a.Field, b.Field) })
 		return in, fe
 	}
 	return in, nil
@@ -211,7 +212,7 @@ func (s *Server) apiProjectPatch(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	if msg := versionProblem(in.Version); msg != "" {
-		s.fail(w, r, Invalid(FieldError{Field: "version", Message: msg}))
+		s.fail(w, r, Invalid(field.Error{Field: "version", Message: msg}))
 		return
 	}
 	row := in.project()

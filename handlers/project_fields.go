@@ -2,6 +2,7 @@ package handlers
 
 import (
 	"encoding/json"
+	"errors"
 	"fmt"
 	"math"
 	"net/http"
@@ -10,7 +11,7 @@ import (
 	"strconv"
 	"strings"
 
-	"lagwright/analysis"
+	"lagwright/field"
 	"lagwright/units"
 	"lagwright/web"
 )
@@ -157,7 +158,7 @@ func (f *formState) view() web.EntryForm {
 
 // place puts field errors beside the fields the form has (by JSON path, or an alias),
 // and the others in the general list with their path.
-func (f *formState) place(fe analysis.FieldErrors, has func(string) (string, bool)) {
+func (f *formState) place(fe field.Errors, has func(string) (string, bool)) {
 	for _, e := range fe {
 		if key, ok := has(e.Field); ok {
 			f.addError(key, e.Message)
@@ -232,12 +233,11 @@ func jsonMap(v any) map[string]any {
 	return m
 }
 
-// fieldErrors turns a FieldErrors-or-other error into FieldErrors (nil for other errors).
-func asFieldErrors(err error) analysis.FieldErrors {
-	if fe, ok := err.(analysis.FieldErrors); ok {
-		return fe
-	}
-	return nil
+// asFieldErrors finds the field.Errors in err (nil for other errors).
+func asFieldErrors(err error) field.Errors {
+	var fe field.Errors
+	errors.As(err, &fe)
+	return fe
 }
 
 // sortedKeys lists a map's keys in order (for stable output).

@@ -12,6 +12,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/catalog"
+	"lagwright/field"
 	"lagwright/store"
 	"lagwright/units"
 	"lagwright/web"
@@ -87,9 +88,9 @@ type projectInput struct {
 
 // validate checks the project beyond the types: name, units, and the settings
 // (ProjectSettings.Validate plus the condition sets and economics it leaves alone).
-func (p *projectInput) validate() analysis.FieldErrors {
-	var fe analysis.FieldErrors
-	add := func(field, msg string) { fe = append(fe, analysis.FieldError{Field: field, Message: msg}) }
+func (p *projectInput) validate() field.Errors {
+	var fe field.Errors
+	add := func(name, msg string) { fe = append(fe, field.Error{Field: name, Message: msg}) }
 	p.Name, p.Client, p.Site = strings.TrimSpace(p.Name), strings.TrimSpace(p.Client), strings.TrimSpace(p.Site)
 	if p.Name == "" {
 		add("name", "is required")

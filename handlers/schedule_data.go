@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"lagwright/analysis"
+	"lagwright/field"
 	"lagwright/schedule"
 	"lagwright/store"
 	"lagwright/units"
@@ -56,7 +57,7 @@ func revParam(r *http.Request) (int, error) {
 	}
 	n, err := parseVersion(v)
 	if err != nil {
-		return 0, Invalid(FieldError{Field: "rev", Message: "must be a revision number (1, 2, …)"})
+		return 0, Invalid(field.Error{Field: "rev", Message: "must be a revision number (1, 2, …)"})
 	}
 	return n, nil
 }

@@ -7,6 +7,8 @@ import (
 	"strings"
 	"time"
 	"unicode/utf8"
+
+	"lagwright/field"
 )
 
 // maxRevisionNote bounds a revision note, in characters.
@@ -19,12 +21,12 @@ func (s *Server) scheduleIssue(w http.ResponseWriter, r *http.Request) {
 	p, _ := projectOf(r)
 	id := p.ID
 	if err := r.ParseForm(); err != nil {
-		s.fail(w, r, Invalid(FieldError{Field: "", Message: "the form could not be read"}))
+		s.fail(w, r, Invalid(field.Error{Field: "", Message: "the form could not be read"}))
 		return
 	}
 	note := strings.TrimSpace(r.PostForm.Get("note"))
 	if utf8.RuneCountInString(note) > maxRevisionNote {
-		s.fail(w, r, Invalid(FieldError{Field: "note", Message: fmt.Sprintf("at most %d characters", maxRevisionNote)}))
+		s.fail(w, r, Invalid(field.Error{Field: "note", Message: fmt.Sprintf("at most %d characters", maxRevisionNote)}))
 		return
 	}
 	sc, err := s.draftSchedule(r)

@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"lagwright/analysis"
+	"lagwright/field"
 	"lagwright/units"
 )
 
@@ -87,7 +88,7 @@ func fixture(t testing.TB, sys units.System) (Project, []Line) {
 		l := Line{ID: int64(100 + i), Tag: fl.tag, Service: fl.service, Location: fl.location, Exposure: fl.exposure,
 			Notes: fl.notes, Input: eff, Fittings: fl.fittings}
 		out, err := analysis.Analyse(eff, analysis.CatalogResolver{})
-		var fe analysis.FieldErrors
+		var fe field.Errors
 		switch {
 		case errors.As(err, &fe):
 			for _, e := range fe {

@@ -9,6 +9,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/demo"
+	"lagwright/field"
 	"lagwright/units"
 )
 
@@ -79,7 +80,7 @@ func TestStoredFromParts(t *testing.T) {
 		l := Line{ID: int64(i + 1), Tag: dl.Tag, Service: dl.Service, Location: dl.Location, Exposure: dl.Exposure,
 			Notes: dl.Notes, Input: eff, Fittings: dl.Fittings}
 		out, err := analysis.Analyse(eff, analysis.CatalogResolver{})
-		var fe analysis.FieldErrors
+		var fe field.Errors
 		switch {
 		case errors.As(err, &fe):
 			for _, e := range fe {

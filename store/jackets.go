@@ -9,6 +9,7 @@ import (
 	"github.com/jackc/pgx/v5"
 
 	"lagwright/catalog"
+	"lagwright/field"
 )
 
 // Jacket is an outer jacket or coating in the library: a built-in one seeded from
@@ -23,17 +24,17 @@ type Jacket struct {
 // Validate checks a jacket's own data and returns every problem, or nil: a slug of
 // 2–60 lowercase letters, digits and underscores; a name and source; emittance
 // 0–1; permeance 0 (unknown) to 1000 perm.
-func (j Jacket) Validate() FieldErrors {
-	var fe FieldErrors
+func (j Jacket) Validate() field.Errors {
+	var fe field.Errors
 	validateSlug(&fe, j.Slug)
 	validateText(&fe, "name", j.Name, true, MaxTextLen)
 	validateText(&fe, "use", j.Use, false, MaxTextLen)
 	validateText(&fe, "source", j.Source, true, MaxSourceLen)
 	if !finite(j.Emittance) || j.Emittance < 0 || j.Emittance > 1 {
-		fe.add("emittance", "must be between 0 and 1")
+		fe.Add("emittance", "must be between 0 and 1")
 	}
 	if !finite(j.PermeancePerm) || j.PermeancePerm < 0 || j.PermeancePerm > MaxPermeance {
-		fe.add("permeance_perm", "must be between 0 (unknown) and %d perm", MaxPermeance)
+		fe.Add("permeance_perm", "must be between 0 (unknown) and %d perm", MaxPermeance)
 	}
 	return fe
 }
@@ -79,10 +80,10 @@ func (s *Store) Jacket(ctx context.Context, slug string) (Jacket, error) {
 	return j, nil
 }
 
-// CreateJacket adds a custom jacket at version 1. Invalid data gives FieldErrors; a
+// CreateJacket adds a custom jacket at version 1. Invalid data gives field.Errors; a
 // built-in's slug ErrBuiltinSlug; another custom jacket's slug ErrSlugTaken.
 func (s *Store) CreateJacket(ctx context.Context, j Jacket) (Jacket, error) {
-	if err := j.Validate().asError(); err != nil {
+	if err := j.Validate().Err(); err != nil {
 		return Jacket{}, err
 	}
 	if _, ok := catalog.JacketBySlug(j.Slug); ok {
@@ -105,10 +106,10 @@ func (s *Store) CreateJacket(ctx context.Context, j Jacket) (Jacket, error) {
 }
 
 // UpdateJacket saves a custom jacket if its version is still j.Version and returns
-// it with the next version. Invalid data gives FieldErrors; a built-in ErrBuiltin; a
+// it with the next version. Invalid data gives field.Errors; a built-in ErrBuiltin; a
 // stale version ErrConflict; a missing jacket ErrNotFound.
 func (s *Store) UpdateJacket(ctx context.Context, j Jacket) (Jacket, error) {
-	if err := j.Validate().asError(); err != nil {
+	if err := j.Validate().Err(); err != nil {
 		return Jacket{}, err
 	}
 	rows, _ := s.pool.Query(ctx, `

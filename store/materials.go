@@ -14,6 +14,7 @@ import (
 	"github.com/jackc/pgx/v5/pgconn"
 
 	"lagwright/catalog"
+	"lagwright/field"
 )
 
 // Errors of the library (materials and jackets), for errors.Is.
@@ -54,36 +55,6 @@ func (e *InUseError) Error() string {
 // Is makes errors.Is(err, ErrInUse) true.
 func (e *InUseError) Is(target error) bool { return target == ErrInUse }
 
-// FieldError is one problem with one field of a material or jacket, named as in the
-// JSON API ("k_points[2]", "max_temp_c").
-type FieldError struct {
-	Field   string `json:"field"`
-	Message string `json:"message"`
-}
-
-// FieldErrors is every problem found in a material or jacket; nothing was saved.
-type FieldErrors []FieldError
-
-func (e FieldErrors) Error() string {
-	parts := make([]string, len(e))
-	for i, fe := range e {
-		parts[i] = fe.Field + ": " + fe.Message
-	}
-	return "invalid: " + strings.Join(parts, "; ")
-}
-
-func (e *FieldErrors) add(field, format string, args ...any) {
-	*e = append(*e, FieldError{Field: field, Message: fmt.Sprintf(format, args...)})
-}
-
-// asError returns nil for no problems, so `return v.Validate().asError()` is safe.
-func (e FieldErrors) asError() error {
-	if len(e) == 0 {
-		return nil
-	}
-	return e
-}
-
 // Bounds of a library entry. The k and temperature bounds match the machine
 // interface's own checks of inline k_points (analysis), so whatever the library
 // accepts the engine accepts too.
@@ -105,23 +76,23 @@ const (
 
 var slugRE = regexp.MustCompile(`^[a-z0-9_]+$`)
 
-func validateSlug(fe *FieldErrors, slug string) {
+func validateSlug(fe *field.Errors, slug string) {
 	switch {
 	case len(slug) < minSlugLen || len(slug) > maxSlugLen:
-		fe.add("slug", "must be %d to %d characters", minSlugLen, maxSlugLen)
+		fe.Add("slug", "must be %d to %d characters", minSlugLen, maxSlugLen)
 	case !slugRE.MatchString(slug):
-		fe.add("slug", "may hold only lowercase letters, digits and underscores")
+		fe.Add("slug", "may hold only lowercase letters, digits and underscores")
 	case slug == reservedSlugNew:
-		fe.add("slug", "%q is reserved; choose another", slug)
+		fe.Add("slug", "%q is reserved; choose another", slug)
 	}
 }
 
-func validateText(fe *FieldErrors, field, v string, required bool, maxLen int) {
+func validateText(fe *field.Errors, name, v string, required bool, maxLen int) {
 	switch {
 	case required && strings.TrimSpace(v) == "":
-		fe.add(field, "is required")
+		fe.Add(name, "is required")
 	case len(v) > maxLen:
-		fe.add(field, "must be at most %d characters", maxLen)
+		fe.Add(name, "must be at most %d characters", maxLen)
 	}
 }
 
@@ -143,8 +114,8 @@ type Material struct {
 // more thicknesses, strictly ascending, each above 0 and at most 600 mm; the
 // largest single layer above 0 and at most 600 mm; and, for a compressible
 // material, an installed compression of 0–60 %.
-func (m Material) Validate() FieldErrors {
-	var fe FieldErrors
+func (m Material) Validate() field.Errors {
+	var fe field.Errors
 	validateSlug(&fe, m.Slug)
 	validateText(&fe, "name", m.Name, true, MaxTextLen)
 	validateText(&fe, "category", m.Category, true, MaxTextLen)
@@ -153,19 +124,19 @@ func (m Material) Validate() FieldErrors {
 
 	switch n := len(m.KPoints); {
 	case n < 2:
-		fe.add("k_points", "give at least 2 points (mean temperature, k)")
+		fe.Add("k_points", "give at least 2 points (mean temperature, k)")
 	case n > MaxKPoints:
-		fe.add("k_points", "give at most %d points", MaxKPoints)
+		fe.Add("k_points", "give at most %d points", MaxKPoints)
 	default:
 		for i, p := range m.KPoints {
 			f := fmt.Sprintf("k_points[%d]", i)
 			switch {
 			case !finite(p.MeanC) || p.MeanC < MinMeanTempC || p.MeanC > MaxMeanTempC:
-				fe.add(f, "mean temperature must be between %d and %d °C", MinMeanTempC, MaxMeanTempC)
+				fe.Add(f, "mean temperature must be between %d and %d °C", MinMeanTempC, MaxMeanTempC)
 			case !finite(p.K) || p.K <= 0 || p.K > MaxK:
-				fe.add(f, "k must be greater than 0 and at most %d W/m·K", MaxK)
+				fe.Add(f, "k must be greater than 0 and at most %d W/m·K", MaxK)
 			case i > 0 && p.MeanC <= m.KPoints[i-1].MeanC:
-				fe.add(f, "mean temperatures must be strictly increasing")
+				fe.Add(f, "mean temperatures must be strictly increasing")
 			}
 		}
 	}
@@ -173,38 +144,38 @@ func (m Material) Validate() FieldErrors {
 	minOK := finite(m.MinC) && m.MinC >= MinMeanTempC && m.MinC <= MaxMeanTempC
 	maxOK := finite(m.MaxC) && m.MaxC >= MinMeanTempC && m.MaxC <= MaxMeanTempC
 	if !minOK {
-		fe.add("min_temp_c", "must be between %d and %d °C", MinMeanTempC, MaxMeanTempC)
+		fe.Add("min_temp_c", "must be between %d and %d °C", MinMeanTempC, MaxMeanTempC)
 	}
 	if !maxOK {
-		fe.add("max_temp_c", "must be between %d and %d °C", MinMeanTempC, MaxMeanTempC)
+		fe.Add("max_temp_c", "must be between %d and %d °C", MinMeanTempC, MaxMeanTempC)
 	}
 	if minOK && maxOK && m.MinC >= m.MaxC {
-		fe.add("max_temp_c", "must be above the lowest service temperature")
+		fe.Add("max_temp_c", "must be above the lowest service temperature")
 	}
 
 	switch n := len(m.ThicknessesMM); {
 	case n == 0:
-		fe.add("thicknesses_mm", "give at least one thickness")
+		fe.Add("thicknesses_mm", "give at least one thickness")
 	case n > MaxThicknesses:
-		fe.add("thicknesses_mm", "give at most %d thicknesses", MaxThicknesses)
+		fe.Add("thicknesses_mm", "give at most %d thicknesses", MaxThicknesses)
 	default:
 		for i, t := range m.ThicknessesMM {
 			f := fmt.Sprintf("thicknesses_mm[%d]", i)
 			switch {
 			case !finite(t) || t <= 0 || t > MaxThicknessMM:
-				fe.add(f, "must be greater than 0 and at most %d mm", MaxThicknessMM)
+				fe.Add(f, "must be greater than 0 and at most %d mm", MaxThicknessMM)
 			case i > 0 && t <= m.ThicknessesMM[i-1]:
-				fe.add(f, "thicknesses must be in ascending order, each once")
+				fe.Add(f, "thicknesses must be in ascending order, each once")
 			}
 		}
 	}
 	if !finite(m.MaxLayerMM) || m.MaxLayerMM <= 0 || m.MaxLayerMM > MaxThicknessMM {
-		fe.add("max_layer_mm", "must be greater than 0 and at most %d mm", MaxThicknessMM)
+		fe.Add("max_layer_mm", "must be greater than 0 and at most %d mm", MaxThicknessMM)
 	}
 	if !finite(m.CompressionPct) || m.CompressionPct < 0 || m.CompressionPct > MaxCompression {
-		fe.add("compression_pct", "must be between 0 and %d %%", MaxCompression)
+		fe.Add("compression_pct", "must be between 0 and %d %%", MaxCompression)
 	} else if !m.Compressible && m.CompressionPct != 0 {
-		fe.add("compression_pct", "applies only to a compressible material")
+		fe.Add("compression_pct", "applies only to a compressible material")
 	}
 	return fe
 }
@@ -256,13 +227,13 @@ func (s *Store) Material(ctx context.Context, slug string) (Material, error) {
 }
 
 // CreateMaterial adds a custom material at version 1. Invalid data gives
-// FieldErrors; a built-in's slug ErrBuiltinSlug; another custom material's slug
+// field.Errors; a built-in's slug ErrBuiltinSlug; another custom material's slug
 // ErrSlugTaken.
 func (s *Store) CreateMaterial(ctx context.Context, m Material) (Material, error) {
 	if !m.Compressible {
 		m.CompressionPct = 0
 	}
-	if err := m.Validate().asError(); err != nil {
+	if err := m.Validate().Err(); err != nil {
 		return Material{}, err
 	}
 	if _, ok := catalog.MaterialBySlug(m.Slug); ok {
@@ -289,13 +260,13 @@ func (s *Store) CreateMaterial(ctx context.Context, m Material) (Material, error
 
 // UpdateMaterial saves a custom material if its version is still m.Version and
 // returns it with the next version, so stored line results that used it become
-// stale. Invalid data gives FieldErrors; a built-in ErrBuiltin; a stale version
+// stale. Invalid data gives field.Errors; a built-in ErrBuiltin; a stale version
 // ErrConflict; a missing material ErrNotFound.
 func (s *Store) UpdateMaterial(ctx context.Context, m Material) (Material, error) {
 	if !m.Compressible {
 		m.CompressionPct = 0
 	}
-	if err := m.Validate().asError(); err != nil {
+	if err := m.Validate().Err(); err != nil {
 		return Material{}, err
 	}
 	th, _ := json.Marshal(m.ThicknessesMM)

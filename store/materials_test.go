@@ -12,6 +12,7 @@ import (
 	"github.com/jackc/pgx/v5"
 
 	"lagwright/catalog"
+	"lagwright/field"
 	"lagwright/store"
 	"lagwright/store/storetest"
 )
@@ -29,7 +30,7 @@ func customMaterial(slug string) store.Material {
 }
 
 func fieldsOf(err error) []string {
-	var fe store.FieldErrors
+	var fe field.Errors
 	if !errors.As(err, &fe) {
 		return nil
 	}

@@ -7,6 +7,7 @@ import (
 	"io"
 
 	"lagwright/analysis"
+	"lagwright/field"
 )
 
 // calcCmd reads one line's JSON on stdin and writes the analysis on stdout, with the
@@ -21,10 +22,10 @@ func calcCmd(args []string, stdin io.Reader, stdout io.Writer) error {
 		return fmt.Errorf("calc: read input: %w", err)
 	}
 	out, err := analysis.Run(data, analysis.CatalogResolver{})
-	var fe analysis.FieldErrors
+	var fe field.Errors
 	if errors.As(err, &fe) {
 		writeIndented(stdout, struct {
-			Errors analysis.FieldErrors `json:"errors"`
+			Errors field.Errors `json:"errors"`
 		}{fe})
 		return exitStatus{code: 2}
 	}
