@@ -96,6 +96,8 @@ func (a *analyser) system(tMM float64) calc.System {
 		return l.base
 	case tMM == bareSurface:
 		return l.bare
+	case tMM == asFound:
+		return *l.existing
 	}
 	n := len(l.base.Layers)
 	if tMM == 0 {
@@ -122,7 +124,7 @@ func (a *analyser) systemKey(tMM float64) float64 {
 	l := a.l
 	n := len(l.base.Layers)
 	switch {
-	case tMM == asSpecified || tMM == bareSurface || n == 0:
+	case tMM == asSpecified || tMM == bareSurface || tMM == asFound || n == 0:
 		return tMM
 	case tMM == 0 && n <= 1:
 		return bareSurface
@@ -205,6 +207,9 @@ func (a *analyser) run() (*Output, error) {
 		return nil, err
 	}
 	if err := a.fittingsAndSupports(main, bare); err != nil {
+		return nil, err
+	}
+	if err := a.asFoundHeat(bare); err != nil {
 		return nil, err
 	}
 	if err := a.alongRun(main); err != nil {

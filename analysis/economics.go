@@ -280,6 +280,13 @@ func (a *analyser) economics(cands []float64) error {
 	}
 	o.Economics = slices.Grow(o.Economics, len(rows)+1)
 	o.Economics = append(o.Economics, a.econRow(rows[0], rows[0], surf[0], priced))
+	found, err := a.asFoundEconomics(basis, qBare, rows[0], bare)
+	if err != nil {
+		return err
+	}
+	if found != nil {
+		o.Economics = append(o.Economics, *found)
+	}
 	for i, r := range rows[1:] {
 		o.Economics = append(o.Economics, a.econRow(r, rows[0], surf[i+1], priced))
 	}

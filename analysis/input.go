@@ -63,6 +63,8 @@ type Input struct {
 	Criteria      *Criteria  `json:"criteria,omitempty"`
 	ThicknessesMM []float64  `json:"thicknesses_mm,omitempty"`
 	Economics     *Economics `json:"economics,omitempty"`
+	// Existing is the line as found (an audit); Layers are then the proposed build.
+	Existing *Existing `json:"existing,omitempty"`
 }
 
 // Conditions holds the optional per-criterion condition sets.

@@ -52,6 +52,8 @@ type Output struct {
 	Sizing     Sizing         `json:"sizing"`
 	EnergyCode *EnergyCodeRow `json:"energy_code"`
 	Economics  []EconomicsRow `json:"economics"`
+	// AsFound is the line as found (with existing), beside the proposed build and bare.
+	AsFound *AsFoundOut `json:"as_found"`
 	// EnergyBasis is the basis the economics used (nil without economics or a price).
 	EnergyBasis *EnergyBasis `json:"energy_basis"`
 	// EconomicsAsSpecified prices the line's own build (project totals, audit).

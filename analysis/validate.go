@@ -70,6 +70,10 @@ type line struct {
 	equivLengthM float64 // length + the insulated fittings' equivalent length
 	runHeatW     float64 // the run's whole heat: run, fittings of every finish, supports
 
+	existing *calc.System // the build as found (nil: no existing given)
+	kFactor  float64      // condition factor on k of the existing layers
+	missing  float64      // fraction of the run found bare
+
 	fittings       []fittingKind
 	anyCover       bool
 	coverJacket    *catalog.Jacket
@@ -241,6 +245,7 @@ func resolve(in Input, r Resolver) (*line, error) {
 	resolveSurface(l, r, &c)
 	resolveRun(l, &c)
 	resolveFittings(l, r, &c)
+	resolveExisting(l, r, &c)
 	resolveCriteria(l, &c)
 	resolveEconomics(l, &c)
 	if err := c.err(); err != nil {
@@ -688,13 +693,28 @@ func judgedAtDesign(name string, stillAir bool) string {
 }
 
 func resolveLayers(l *line, r Resolver, c *errs) {
-	in := l.in
-	if len(in.Layers) > maxLayers {
+	if len(l.in.Layers) > maxLayers {
 		c.add("layers", "must have at most %d layers", maxLayers)
 		return
 	}
-	for i, li := range in.Layers {
-		p := func() string { return "layers[" + strconv.Itoa(i) + "]." } // named on error only
+	ls := buildLayers(l, l.in.Layers, "layers", r, c)
+	l.base.Layers, l.layerMaterials, l.installed, l.outerMaterial = ls.layers, ls.materials, ls.installed, ls.outer
+}
+
+// builtLayers are resolved insulation layers, inner to outer.
+type builtLayers struct {
+	layers    []calc.Layer
+	materials []string          // slug per layer ("" for k given directly)
+	installed []float64         // installed / nominal thickness per layer
+	outer     *catalog.Material // the outermost layer's material, when known
+}
+
+// buildLayers resolves a list of layers (the line's, or the existing build's) named
+// under field ("layers", "existing.layers").
+func buildLayers(l *line, list []LayerInput, field string, r Resolver, c *errs) builtLayers {
+	var out builtLayers
+	for i, li := range list {
+		p := func() string { return field + "[" + strconv.Itoa(i) + "]." } // named on error only
 		switch t := li.ThicknessMM; {
 		case t == nil:
 			c.add(p()+"thickness_mm", "is required")
@@ -724,12 +744,12 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 			layer.K = kCurve(m.KPoints)
 			if m.Compressible && m.CompressionPct > 0 {
 				factor = 1 - m.CompressionPct/100
-				l.assume("layer %d (%s) counted at its installed thickness: %s %% compression of the nominal (common practice)",
-					i+1, m.Name, fmtNum(m.CompressionPct))
+				l.assume("%s %d (%s) counted at its installed thickness: %s %% compression of the nominal (common practice)",
+					strings.TrimSuffix(strings.ReplaceAll(field, "existing.layers", "existing layer"), "s"), i+1, m.Name, fmtNum(m.CompressionPct))
 			}
 			layer.MinC, layer.MaxC, layer.HasLimits = m.MinC, m.MaxC, true
-			if i == len(in.Layers)-1 {
-				l.outerMaterial = &m
+			if i == len(list)-1 {
+				out.outer = &m
 			}
 		case li.KWmK != nil:
 			if *li.KWmK <= 0 || *li.KWmK > 10 {
@@ -737,7 +757,8 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 				continue
 			}
 			layer.K = calc.KCurve{{MeanC: 20, K: *li.KWmK}}
-			l.assume("layer %d: constant k %s W/m·K at every temperature", i+1, fmtNum(*li.KWmK))
+			l.assume("%s %d: constant k %s W/m·K at every temperature",
+				strings.TrimSuffix(strings.ReplaceAll(field, "existing.layers", "existing layer"), "s"), i+1, fmtNum(*li.KWmK))
 		default:
 			if !validKPoints(c, p()+"k_points", li.KPoints) {
 				continue
@@ -747,10 +768,11 @@ func resolveLayers(l *line, r Resolver, c *errs) {
 			}
 		}
 		layer.Thickness = orDefault(li.ThicknessMM, 0) / 1000 * factor
-		l.base.Layers = append(l.base.Layers, layer)
-		l.layerMaterials = append(l.layerMaterials, li.Material)
-		l.installed = append(l.installed, factor)
+		out.layers = append(out.layers, layer)
+		out.materials = append(out.materials, li.Material)
+		out.installed = append(out.installed, factor)
 	}
+	return out
 }
 
 // validKPoints checks a k-versus-mean-temperature list.
