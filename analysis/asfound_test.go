@@ -5,6 +5,8 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"lagwright/field"
 )
 
 // The audit line of the tests: hot water 80 °C in 20 °C air, NPS 4 (OD 114.3 mm, ASME
@@ -88,7 +90,7 @@ func TestExistingFieldErrors(t *testing.T) {
 		`{"layers":[{"k_w_mk":0.035}],"condition":"soggy","k_factor":0.5,"missing_fraction":1.5,"bare_fittings":["gates"]}`, 1))
 	for _, want := range []string{"existing.layers[0].thickness_mm", "existing.condition", "existing.k_factor",
 		"existing.missing_fraction", "existing.bare_fittings[0]"} {
-		if !slices.ContainsFunc(fe, func(f FieldError) bool { return f.Field == want }) {
+		if !slices.ContainsFunc(fe, func(f field.Error) bool { return f.Field == want }) {
 			t.Errorf("no error on %s: %v", want, fe)
 		}
 	}
