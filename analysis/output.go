@@ -48,6 +48,7 @@ type Output struct {
 	FreezeHoursTo0C     *float64 `json:"freeze_hours_to_0c"`
 	FreezeHoursToFreeze *float64 `json:"freeze_hours_to_freeze"`
 	HeatTraceWPerM      *float64 `json:"heat_trace_w_per_m"`
+	HeatTraceW          *float64 `json:"heat_trace_w"` // per run: length plus fittings
 
 	Sizing     Sizing         `json:"sizing"`
 	EnergyCode *EnergyCodeRow `json:"energy_code"`

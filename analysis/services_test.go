@@ -198,3 +198,46 @@ func TestSuperheatedSteam(t *testing.T) {
 		t.Errorf("cp for superheated steam: errors %v", fe)
 	}
 }
+
+// Heat tracing for any fluid: criteria.maintain_temp_c above the cold-design air asks for
+// the tracing load on the handbook basis (ASHRAE Fundamentals ch. 23: q = (t_m − t_a)/R_T,
+// insulation resistance only), times the safety factor, per metre and per run.
+func TestHeatTracingAnyFluid(t *testing.T) {
+	out := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 3","fluid":"other","operating_temp_c":60,"ambient_temp_c":-20,"wind_m_s":5,
+		"length_m":50,"fittings_equiv_length_m":5,"layers":[{"k_w_mk":0.045,"thickness_mm":50}],"jacket":"aluminium_new",
+		"criteria":{"maintain_temp_c":40}}`)
+	// Hand calculation: NPS 3 OD 88.9 mm (ASME B36.10M); D3 = 188.9 mm; R_T = ln(188.9/88.9)/(2π·0.045)
+	// = 2.66458 K·m/W; q = 60 K / R_T = 22.518 W/m; × 1.2 = 27.021 W/m; × 55 m = 1486.2 W.
+	if out.HeatTraceWPerM == nil || out.HeatTraceW == nil {
+		t.Fatalf("heat tracing: %v W/m, %v W", out.HeatTraceWPerM, out.HeatTraceW)
+	}
+	near(t, "heat_trace_w_per_m", *out.HeatTraceWPerM, 27.021, 0.0005)
+	near(t, "heat_trace_w", *out.HeatTraceW, 1486.2, 0.0005)
+	if !containsAny(out.Assumptions, "safety factor 1.2 on the load (our default 1.2)") || !containsAny(out.Assumptions, "supports") {
+		t.Errorf("assumptions must name the safety factor and what the run counts: %q", out.Assumptions)
+	}
+	// The fuller model counts the outer film too, so it needs less.
+	full := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 3","fluid":"glycol","operating_temp_c":60,"ambient_temp_c":-20,"wind_m_s":5,
+		"layers":[{"k_w_mk":0.045,"thickness_mm":50}],"jacket":"aluminium_new","criteria":{"maintain_temp_c":40,"freeze_model":"full","heat_trace_factor":1.5}}`)
+	if full.HeatTraceWPerM == nil || !(*full.HeatTraceWPerM/1.5 < 22.518) || !(*full.HeatTraceWPerM/1.5 > 22.518*0.9) {
+		t.Errorf("full model: %v W/m at factor 1.5, want a little under 22.518 × 1.5", full.HeatTraceWPerM)
+	}
+	// Air at or above the maintain temperature: none needed, and said.
+	warm := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 3","operating_temp_c":60,"ambient_temp_c":20,
+		"layers":[{"k_w_mk":0.045,"thickness_mm":50}],"jacket":"aluminium_new","criteria":{"maintain_temp_c":15}}`)
+	if warm.HeatTraceWPerM != nil || !containsAny(warm.Assumptions, "none is needed") {
+		t.Errorf("warm air: %v, %q", warm.HeatTraceWPerM, warm.Assumptions)
+	}
+	// Bad combinations, each named.
+	fe := fieldNames(fieldErrors(t, `{"geometry":"duct","duct_width_mm":400,"duct_height_mm":300,"operating_temp_c":30,"ambient_temp_c":-10,
+		"layers":[],"criteria":{"maintain_temp_c":20,"freeze_model":"full"}}`))
+	for _, f := range []string{"criteria.maintain_temp_c", "criteria.freeze_model"} {
+		if !slices.Contains(fe, f) {
+			t.Errorf("duct with tracing: errors %v, want %s", fe, f)
+		}
+	}
+	fe = fieldNames(fieldErrors(t, `{"geometry":"pipe","pipe_size":"NPS 3","operating_temp_c":30,"ambient_temp_c":-10,"layers":[],"criteria":{"heat_trace_factor":1.3}}`))
+	if !slices.Contains(fe, "criteria.heat_trace_factor") {
+		t.Errorf("factor without tracing: errors %v", fe)
+	}
+}

@@ -362,22 +362,34 @@ func (a *analyser) governing() {
 	s.LayersProposed = append(s.LayersProposed, LayerPlan{Material: slug, ThicknessMM: t})
 }
 
-// heatTrace gives the heat-tracing load where the insulation as specified cannot hold
-// the water above freezing for the required time.
+// heatTrace gives the heat-tracing load: on any pipe line whose criteria give a
+// maintain temperature above the cold-design air, and on water lines whose insulation as
+// specified cannot hold the water above freezing for the required time.
 func (a *analyser) heatTrace() error {
 	l, o := a.l, a.out
 	k := l.crit
-	if k.freezeHours == nil || o.FreezeHoursTo0C == nil {
+	air := l.freeze.air
+	why := "to hold the fluid at it"
+	switch {
+	case k.maintainGiven && l.shape.IsPipe():
+		if air.TempC >= k.maintainC {
+			l.assume("heat tracing: the cold-design air %s °C is not below the maintain temperature %s °C, so none is needed",
+				fmtRound(air.TempC, 1), fmtRound(k.maintainC, 1))
+			return nil
+		}
+	case k.freezeHours != nil && o.FreezeHoursTo0C != nil:
+		have := *o.FreezeHoursTo0C
+		if k.freezeBasis == "fraction" {
+			have = *o.FreezeHoursToFreeze
+		}
+		if have >= *k.freezeHours {
+			return nil
+		}
+		why = "because the insulation alone does not meet freeze_hours"
+	default:
 		return nil
 	}
-	have := *o.FreezeHoursTo0C
-	if k.freezeBasis == "fraction" {
-		have = *o.FreezeHoursToFreeze
-	}
-	if have >= *k.freezeHours {
-		return nil
-	}
-	r, err := a.solve(asSpecified, k.maintainC, l.freeze.air)
+	r, err := a.solve(asSpecified, k.maintainC, air)
 	if err != nil {
 		return err
 	}
@@ -388,13 +400,27 @@ func (a *analyser) heatTrace() error {
 		if err != nil {
 			return err
 		}
-		q = (k.maintainC - l.freeze.air.TempC) / rt
+		q = (k.maintainC - air.TempC) / rt
 		basis = "handbook basis: insulation resistance only, wall and films neglected (conservative)"
 	}
 	o.HeatTraceWPerM = a.num(round(q*k.heatTraceFactor, 3))
-	l.assume("heat tracing holds %s °C at the freeze conditions with the insulation as specified (%s), times a safety factor %s (our default 1.2)",
-		fmtRound(k.maintainC, 1), basis, fmtNum(k.heatTraceFactor))
+	l.assume("heat tracing maintains %s °C (%s) in the cold-design air %s °C (the freeze conditions) with the insulation as specified, "+
+		"%s; safety factor %s on the load (%s)",
+		fmtRound(k.maintainC, 1), why, fmtRound(air.TempC, 1), basis, fmtNum(k.heatTraceFactor), traceFactorSource(l))
+	if l.lengthM > 0 {
+		o.HeatTraceW = a.num(round(q*k.heatTraceFactor*l.equivLengthM, 1))
+		l.assume("heat tracing per run over the length plus fittings (%s m): valves, flanges and other fittings as their equivalent lengths; "+
+			"pipe supports are not counted — add the tracing allowance for supports where the line has them", fmtRound(l.equivLengthM, 1))
+	}
 	return nil
+}
+
+// traceFactorSource says where the heat-tracing safety factor came from.
+func traceFactorSource(l *line) string {
+	if l.in.Criteria != nil && l.in.Criteria.HeatTraceFactor != nil {
+		return "given"
+	}
+	return "our default 1.2"
 }
 
 // condensationAtGoverning warns when the governing thickness, chosen by another criterion,

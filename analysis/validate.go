@@ -103,6 +103,7 @@ type criteria struct {
 	freezeFraction  float64
 	freezeModel     string // "handbook" | "full"
 	maintainC       float64
+	maintainGiven   bool // maintain_temp_c given: tracing asked for on any pipe line
 	heatTraceFactor float64
 	energyCode      *catalog.CodeTable
 	economic        bool
@@ -924,7 +925,7 @@ func resolveCriteria(l *line, c *errs) {
 	positiveCheck(c, "criteria.max_heat_flow_w_per_m", cr.MaxHeatFlowWPerM, 1e6, "W/m")
 	positiveCheck(c, "criteria.max_temp_change_k", cr.MaxTempChangeK, 500, "K")
 	positiveCheck(c, "criteria.freeze_hours", cr.FreezeHours, 8760, "h")
-	rangeCheck(c, "criteria.maintain_temp_c", cr.MaintainTempC, 0.5, 100, "°C")
+	rangeCheck(c, "criteria.maintain_temp_c", cr.MaintainTempC, 0.5, 300, "°C")
 	rangeCheck(c, "criteria.heat_trace_factor", cr.HeatTraceFactor, 1, 3, "")
 	if cr.FreezeFraction != nil && (*cr.FreezeFraction <= 0 || *cr.FreezeFraction > 1) {
 		c.add("criteria.freeze_fraction", "must be greater than 0 and at most 1")
@@ -968,6 +969,13 @@ func resolveCriteria(l *line, c *errs) {
 		c.add("criteria.freeze_model", "applies to pipes (freeze times and heat tracing)")
 	}
 	k.maintainC = orDefault(cr.MaintainTempC, 5)
+	k.maintainGiven = cr.MaintainTempC != nil
+	if k.maintainGiven && l.in.Geometry != "" && !l.shape.IsPipe() {
+		c.add("criteria.maintain_temp_c", "heat tracing applies to pipes")
+	}
+	if cr.HeatTraceFactor != nil && !k.maintainGiven && k.freezeHours == nil {
+		c.add("criteria.heat_trace_factor", "applies with maintain_temp_c or freeze_hours (the heat-tracing load)")
+	}
 	k.heatTraceFactor = orDefault(cr.HeatTraceFactor, 1.2)
 	if k.freezeHours != nil && l.fluid != "water" {
 		c.add("criteria.freeze_hours", `applies to fluid "water"`)

@@ -190,6 +190,10 @@ func buildColumns() []column {
 			func(in *analysis.Input) *float64 { return crit(in).MaxTempChangeK }),
 		qty("freeze_hours", "criteria.freeze_hours", 0, uHours, func(b *builder) **float64 { return &b.crit.FreezeHours },
 			func(in *analysis.Input) *float64 { return crit(in).FreezeHours }),
+		text("freeze_model", "criteria.freeze_model", func(b *builder) *string { return &b.crit.FreezeModel },
+			func(r *Row) string { return crit(&r.Input).FreezeModel }),
+		qty("maintain_temp", "criteria.maintain_temp_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.crit.MaintainTempC },
+			func(in *analysis.Input) *float64 { return crit(in).MaintainTempC }),
 		text("notes", "", func(b *builder) *string { return &b.row.Notes }, func(r *Row) string { return r.Notes }),
 	)
 	return cols
