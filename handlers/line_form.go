@@ -43,6 +43,8 @@ var lineNumFields = []numField{
 	{Key: "criteria.max_heat_flow_w_per_m", Q: units.HeatFlowPerLength, Label: "Maximum heat flow"},
 	{Key: "criteria.max_temp_change_k", Q: units.TempDiff, Label: "Maximum temperature change"},
 	{Key: "criteria.freeze_hours", Label: "Freeze protection time (h)"},
+	{Key: "criteria.maintain_temp_c", Q: units.Temp, Label: "Heat tracing: maintain"},
+	{Key: "criteria.heat_trace_factor", Label: "Heat tracing safety factor"},
 }
 
 // fittingFields are the fitting counts (stored beside the input).
@@ -164,6 +166,10 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	}
 	nums := lineNumFields
 	readNums(r, nums, sys, st, m)
+	st.Values.Set("criteria.freeze_model", pf.Get("criteria.freeze_model"))
+	if v := strings.TrimSpace(pf.Get("criteria.freeze_model")); v != "" {
+		formSetPath(m, "criteria.freeze_model", v)
+	}
 	// Fields that do not apply to the chosen geometry are kept on the form but not sent.
 	geom, _ := m["geometry"].(string)
 	if geom != "pipe" {
@@ -175,6 +181,11 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 		delete(m, "pipe_od_mm") // a designation wins over a typed OD
 	} else {
 		delete(m, "pipe_schedule")
+	}
+	if cr, ok := m["criteria"].(map[string]any); ok && geom != "pipe" { // heat tracing and freeze basis: pipes only
+		delete(cr, "maintain_temp_c")
+		delete(cr, "heat_trace_factor")
+		delete(cr, "freeze_model")
 	}
 	if geom != "duct" {
 		delete(m, "duct_width_mm")
@@ -253,7 +264,7 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 // lineFieldKey maps an analysis field path to the form field showing it.
 func lineFieldKey(st *formState) func(string) (string, bool) {
 	known := map[string]bool{"tag": true, "service": true, "location": true, "exposure": true, "notes": true,
-		"pipe_size": true, "pipe_schedule": true, "pipe_material": true, "fluid": true, "jacket": true}
+		"pipe_size": true, "pipe_schedule": true, "pipe_material": true, "fluid": true, "jacket": true, "criteria.freeze_model": true}
 	for _, f := range lineNumFields {
 		known[f.Key] = true
 	}
@@ -386,7 +397,8 @@ var formInputKeys = []string{"geometry", "orientation", "facing", "pipe_size", "
 	"duct_width_mm", "duct_height_mm", "height_m", "area_m2", "length_m", "fluid", "operating_temp_c",
 	"steam_gauge_pressure_kpa", "flow", "layers", "jacket", "surface_emittance"}
 
-var formCriteriaKeys = []string{"max_surface_temp_c", "dew_margin_k", "max_heat_flow_w_per_m", "max_temp_change_k", "freeze_hours"}
+var formCriteriaKeys = []string{"max_surface_temp_c", "dew_margin_k", "max_heat_flow_w_per_m", "max_temp_change_k", "freeze_hours",
+	"freeze_model", "maintain_temp_c", "heat_trace_factor"}
 
 // keepHidden lays the form's input over the stored input's keys that the form does not show.
 func keepHidden(stored, form map[string]any) map[string]any {

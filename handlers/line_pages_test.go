@@ -169,6 +169,10 @@ func TestLineFormValidation(t *testing.T) {
 		{"material missing on a row with a thickness", map[string]string{"layers[1].thickness_mm": "1/2"},
 			[]string{"layers[1].material"}, []string{`value="1/2"`}},
 		{"unknown pipe size", map[string]string{"pipe_size": "NPS 7"}, []string{"pipe_size"}, []string{`value="NPS 7"`}},
+		// 150 psig steam saturates near 366 °F (steam tables, from memory): 300 °F is below it.
+		{"steam below saturation, tracing factor out of range", map[string]string{"fluid": "steam", "steam_gauge_pressure_kpa": "150",
+			"operating_temp_c": "300", "criteria.maintain_temp_c": "50", "criteria.heat_trace_factor": "5", "criteria.freeze_model": "full"},
+			[]string{"operating_temp_c", "criteria.heat_trace_factor"}, []string{`value="300"`, `value="5"`, `value="full" selected`}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			f := ptLineForm()
