@@ -204,16 +204,17 @@ func TestSuperheatedSteam(t *testing.T) {
 // insulation resistance only), times the safety factor, per metre and per run.
 func TestHeatTracingAnyFluid(t *testing.T) {
 	out := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 3","fluid":"other","operating_temp_c":60,"ambient_temp_c":-20,"wind_m_s":5,
-		"length_m":50,"fittings_equiv_length_m":5,"layers":[{"k_w_mk":0.045,"thickness_mm":50}],"jacket":"aluminium_new",
-		"criteria":{"maintain_temp_c":40}}`)
+		"length_m":50,"fittings_equiv_length_m":5,"supports":{"spacing_m":5,"w_per_k":0.1},
+		"layers":[{"k_w_mk":0.045,"thickness_mm":50}],"jacket":"aluminium_new","criteria":{"maintain_temp_c":40}}`)
 	// Hand calculation: NPS 3 OD 88.9 mm (ASME B36.10M); D3 = 188.9 mm; R_T = ln(188.9/88.9)/(2π·0.045)
-	// = 2.66458 K·m/W; q = 60 K / R_T = 22.518 W/m; × 1.2 = 27.021 W/m; × 55 m = 1486.2 W.
+	// = 2.66458 K·m/W; q = 60 K / R_T = 22.518 W/m; × 1.2 = 27.021 W/m; × 55 m = 1486.2 W; plus
+	// 10 supports (50 m at 5 m) × 0.1 W/K × 60 K × 1.2 = 72 W: 1558.2 W.
 	if out.HeatTraceWPerM == nil || out.HeatTraceW == nil {
 		t.Fatalf("heat tracing: %v W/m, %v W", out.HeatTraceWPerM, out.HeatTraceW)
 	}
 	near(t, "heat_trace_w_per_m", *out.HeatTraceWPerM, 27.021, 0.0005)
-	near(t, "heat_trace_w", *out.HeatTraceW, 1486.2, 0.0005)
-	if !containsAny(out.Assumptions, "safety factor 1.2 on the load (our default 1.2)") || !containsAny(out.Assumptions, "supports") {
+	near(t, "heat_trace_w", *out.HeatTraceW, 1558.2, 0.0005)
+	if !containsAny(out.Assumptions, "safety factor 1.2 on the load (our default 1.2)") || !containsAny(out.Assumptions, "10 supports at 0.1 W/K") {
 		t.Errorf("assumptions must name the safety factor and what the run counts: %q", out.Assumptions)
 	}
 	// The fuller model counts the outer film too, so it needs less.

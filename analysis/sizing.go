@@ -408,11 +408,73 @@ func (a *analyser) heatTrace() error {
 		"%s; safety factor %s on the load (%s)",
 		fmtRound(k.maintainC, 1), why, fmtRound(air.TempC, 1), basis, fmtNum(k.heatTraceFactor), traceFactorSource(l))
 	if l.lengthM > 0 {
-		o.HeatTraceW = a.num(round(q*k.heatTraceFactor*l.equivLengthM, 1))
-		l.assume("heat tracing per run over the length plus fittings (%s m): valves, flanges and other fittings as their equivalent lengths; "+
-			"pipe supports are not counted — add the tracing allowance for supports where the line has them", fmtRound(l.equivLengthM, 1))
+		extra, err := a.traceExtrasW(q)
+		if err != nil {
+			return err
+		}
+		o.HeatTraceW = a.num(round((q*l.equivLengthM+extra)*k.heatTraceFactor, 1))
+		l.assume("heat tracing per run: the length plus the insulated fittings' equivalent lengths (%s m), bare fittings by their bare area, "+
+			"and the supports, all at the maintain temperature and times the safety factor", fmtRound(l.equivLengthM, 1))
 	}
 	return nil
+}
+
+// traceExtrasW is the heat, W, that the run loses at the maintain temperature in the
+// cold-design air beyond q' × equivalent length: bare fittings (bare area at the bare
+// flux, as the run's heat does), removable covers (taken as the line's insulation,
+// q' per metre) and the supports (clamps as a hanger-rod fin, or the given W/K each).
+func (a *analyser) traceExtrasW(qPerM float64) (float64, error) {
+	l := a.l
+	k := l.crit
+	air := l.freeze.air
+	dT := k.maintainC - air.TempC
+	var w float64
+	var bare *calc.Result
+	bareRes := func() (calc.Result, error) {
+		if bare == nil {
+			r, err := a.solve(bareSurface, k.maintainC, air)
+			if err != nil {
+				return r, err
+			}
+			bare = &r
+		}
+		return *bare, nil
+	}
+	for _, f := range l.fittings {
+		switch f.finish {
+		case FinishBare:
+			r, err := bareRes()
+			if err != nil {
+				return 0, err
+			}
+			w += r.HeatFlux * float64(f.count) * f.bareAreaM
+		case FinishCover:
+			w += qPerM * float64(f.count) * f.lengthM
+		}
+	}
+	if s := l.supports; s != nil && l.supportSpacing > 0 {
+		n := math.Ceil(l.lengthM/l.supportSpacing - 1e-9)
+		var chi float64
+		switch {
+		case s.WPerK != nil:
+			chi = *s.WPerK
+		case s.Kind == SupportInsert:
+			// An insert under the insulation adds little beside the fin of a bare clamp;
+			// counted as the clamp's rod would be is conservative.
+			fallthrough
+		default:
+			r, err := bareRes()
+			if err != nil {
+				return 0, err
+			}
+			d := catalog.SupportRodDiameterMM(l.fittingNominalIn()) / 1000
+			chi = calc.InfiniteFinConductance(r.HConv+r.HRad, math.Pi*d, catalog.SupportRodKWmK, math.Pi*d*d/4)
+		}
+		w += n * chi * dT
+		l.assume("heat tracing: %.0f supports at %s W/K each (a hanger rod as an infinite fin unless supports.w_per_k is given; conservative for inserts)",
+			n, fmtRound(chi, 3))
+	}
+	return w, nil
 }
 
 // traceFactorSource says where the heat-tracing safety factor came from.
