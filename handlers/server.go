@@ -7,7 +7,6 @@ import (
 	"fmt"
 	"log/slog"
 	"net/http"
-	"sync"
 
 	"github.com/go-chi/chi/v5"
 
@@ -41,8 +40,8 @@ type Server struct {
 	cfg     Config
 	assets  *assets
 	cop     *http.CrossOriginProtection
-	// jobs holds long-running work (imports) by id, so a page can show its progress.
-	jobs sync.Map
+	// runner runs background jobs (imports) from the database's queue (import_job.go).
+	runner *jobRunner
 	// tableCache keeps rendered project line tables under keys read from the
 	// database, so repeated views of an unchanged project skip decoding and rendering.
 	tableCache *tableCache
@@ -64,6 +63,7 @@ func New(st *store.Store, log *slog.Logger, cfg Config) (*Server, error) {
 		}
 	}
 	s := &Server{store: st, results: results.New(st), log: log, cfg: cfg, assets: a, cop: cop, tableCache: newTableCache(tableCacheBytes)}
+	s.runner = newJobRunner(s)
 	cop.SetDenyHandler(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, &Error{Code: CodeForbidden, Message: "Cross-origin request refused."})
 	}))

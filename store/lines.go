@@ -231,61 +231,71 @@ func (e *DuplicateTagsError) Unwrap() error { return ErrDuplicateTag }
 // at once. Tags the project has already give a *DuplicateTagsError. It returns how
 // many lines were created.
 func (s *Store) CreateLines(ctx context.Context, projectID int64, lines []Line, materials LineMaterials) (int, error) {
+	err := pgx.BeginFunc(ctx, s.pool, func(tx pgx.Tx) error {
+		return createLinesTx(ctx, tx, projectID, lines, materials)
+	})
+	return lineResult("import lines", projectID, len(lines), err)
+}
+
+// lineResult maps the outcome of a bulk line insert.
+func lineResult(op string, projectID int64, n int, err error) (int, error) {
+	var dup *DuplicateTagsError
+	switch {
+	case err == nil:
+		return n, nil
+	case errors.As(err, &dup), errors.Is(err, ErrJobLost):
+		return 0, fmt.Errorf("store: %s: %w", op, err)
+	}
+	return 0, lineError(op, Line{ProjectID: projectID}, err)
+}
+
+// createLinesTx is CreateLines inside tx.
+func createLinesTx(ctx context.Context, tx pgx.Tx, projectID int64, lines []Line, materials LineMaterials) error {
 	tags := make([]string, len(lines))
 	for i, l := range lines {
 		tags[i] = l.Tag
 	}
-	err := pgx.BeginFunc(ctx, s.pool, func(tx pgx.Tx) error {
-		if err := lockLinePositions(ctx, tx, projectID); err != nil {
-			return err
-		}
-		rows, _ := tx.Query(ctx, `SELECT tag FROM lines WHERE project_id = $1 AND tag = ANY($2) ORDER BY position LIMIT 5`, projectID, tags)
-		taken, err := pgx.CollectRows(rows, pgx.RowTo[string])
-		if err != nil {
-			return err
-		}
-		if len(taken) > 0 {
-			return &DuplicateTagsError{Tags: taken}
-		}
-		var start int
-		if err := tx.QueryRow(ctx, `SELECT coalesce(max(position), 0) FROM lines WHERE project_id = $1`, projectID).Scan(&start); err != nil {
-			return err
-		}
-		// Ids drawn from the sequence up front, so line_materials can be copied without
-		// a round trip per line; other writers draw theirs meanwhile without clashing.
-		rows, _ = tx.Query(ctx, `SELECT nextval(pg_get_serial_sequence('lines', 'id')) FROM generate_series(1, $1)`, len(lines))
-		ids, err := pgx.CollectRows(rows, pgx.RowTo[int64])
-		if err != nil {
-			return err
-		}
-		_, err = tx.CopyFrom(ctx, pgx.Identifier{"lines"},
-			[]string{"id", "project_id", "position", "tag", "service", "location", "exposure", "input", "fittings", "notes", "result", "result_hash"},
-			pgx.CopyFromSlice(len(lines), func(i int) ([]any, error) {
-				l := lines[i]
-				defaults(&l)
-				return []any{ids[i], projectID, start + i + 1, l.Tag, l.Service, l.Location, l.Exposure,
-					string(l.Input), string(l.Fittings), l.Notes, nullString(l.Result), l.ResultHash}, nil
-			}))
-		if err != nil {
-			return err
-		}
-		var pairs [][]any
-		for i, slugs := range materials {
-			for _, m := range slugs {
-				pairs = append(pairs, []any{ids[i], m})
-			}
-		}
-		_, err = tx.CopyFrom(ctx, pgx.Identifier{"line_materials"}, []string{"line_id", "material_slug"}, pgx.CopyFromRows(pairs))
+	if err := lockLinePositions(ctx, tx, projectID); err != nil {
 		return err
-	})
-	var dup *DuplicateTagsError
-	if errors.As(err, &dup) {
-		return 0, fmt.Errorf("store: import lines: %w", dup)
 	}
+	rows, _ := tx.Query(ctx, `SELECT tag FROM lines WHERE project_id = $1 AND tag = ANY($2) ORDER BY position LIMIT 5`, projectID, tags)
+	taken, err := pgx.CollectRows(rows, pgx.RowTo[string])
 	if err != nil {
-		return 0, lineError("import lines", Line{ProjectID: projectID}, err)
+		return err
 	}
-	return len(lines), nil
+	if len(taken) > 0 {
+		return &DuplicateTagsError{Tags: taken}
+	}
+	var start int
+	if err := tx.QueryRow(ctx, `SELECT coalesce(max(position), 0) FROM lines WHERE project_id = $1`, projectID).Scan(&start); err != nil {
+		return err
+	}
+	// Ids drawn from the sequence up front, so line_materials can be copied without
+	// a round trip per line; other writers draw theirs meanwhile without clashing.
+	rows, _ = tx.Query(ctx, `SELECT nextval(pg_get_serial_sequence('lines', 'id')) FROM generate_series(1, $1)`, len(lines))
+	ids, err := pgx.CollectRows(rows, pgx.RowTo[int64])
+	if err != nil {
+		return err
+	}
+	_, err = tx.CopyFrom(ctx, pgx.Identifier{"lines"},
+		[]string{"id", "project_id", "position", "tag", "service", "location", "exposure", "input", "fittings", "notes", "result", "result_hash"},
+		pgx.CopyFromSlice(len(lines), func(i int) ([]any, error) {
+			l := lines[i]
+			defaults(&l)
+			return []any{ids[i], projectID, start + i + 1, l.Tag, l.Service, l.Location, l.Exposure,
+				string(l.Input), string(l.Fittings), l.Notes, nullString(l.Result), l.ResultHash}, nil
+		}))
+	if err != nil {
+		return err
+	}
+	var pairs [][]any
+	for i, slugs := range materials {
+		for _, m := range slugs {
+			pairs = append(pairs, []any{ids[i], m})
+		}
+	}
+	_, err = tx.CopyFrom(ctx, pgx.Identifier{"line_materials"}, []string{"line_id", "material_slug"}, pgx.CopyFromRows(pairs))
+	return err
 }
 
 func nullString(r json.RawMessage) any {

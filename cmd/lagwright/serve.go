@@ -77,6 +77,10 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 	log.Info("listening", "addr", ln.Addr().String(), "url", "http://"+ln.Addr().String()+"/", "version", version(),
 		"login_required", auth.Required)
 
+	// Background jobs (imports) queued by this or any other instance on the database.
+	jobsDone := make(chan struct{})
+	go func() { srv.RunJobs(ctx); close(jobsDone) }()
+
 	errc := make(chan error, 1)
 	go func() { errc <- hs.Serve(ln) }()
 	select {
@@ -90,6 +94,10 @@ func serve(ctx context.Context, args []string, getenv func(string) string, stder
 	defer cancel()
 	if err := hs.Shutdown(sctx); err != nil {
 		return fmt.Errorf("shutdown: %w", err)
+	}
+	select { // a running job goes back to the queue for another instance
+	case <-jobsDone:
+	case <-sctx.Done():
 	}
 	return nil
 }
