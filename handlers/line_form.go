@@ -25,38 +25,91 @@ const minLayerRows = 2
 // maxLayerRows bounds the layer rows (analysis allows 10 layers).
 const maxLayerRows = 10
 
-// lineNumFields are the numeric fields of analysis.Input on the form.
-var lineNumFields = []numField{
-	{Key: "pipe_od_mm", Q: units.Length, Label: "Outside diameter"},
-	{Key: "duct_width_mm", Q: units.Length, Label: "Duct width"},
-	{Key: "duct_height_mm", Q: units.Length, Label: "Duct height"},
-	{Key: "height_m", Q: units.LongLength, Label: "Height"},
-	{Key: "area_m2", Q: units.Area, Label: "Area"},
-	{Key: "length_m", Q: units.LongLength, Label: "Length"},
-	{Key: "operating_temp_c", Q: units.Temp, Label: "Operating temperature"},
-	{Key: "steam_gauge_pressure_kpa", Q: units.Pressure, Label: "Steam pressure (gauge)"},
-	{Key: "flow.mass_flow_kg_s", Q: units.MassFlow, Label: "Mass flow"},
-	{Key: "flow.cp_j_kgk", Q: cpQuantity, Label: "Specific heat"},
-	{Key: "surface_emittance", Label: "Surface emittance"},
-	{Key: "criteria.max_surface_temp_c", Q: units.Temp, Label: "Touch limit"},
-	{Key: "criteria.dew_margin_k", Q: units.TempDiff, Label: "Dew-point margin"},
-	{Key: "criteria.max_heat_flow_w_per_m", Q: units.HeatFlowPerLength, Label: "Maximum heat flow"},
-	{Key: "criteria.max_temp_change_k", Q: units.TempDiff, Label: "Maximum temperature change"},
-	{Key: "criteria.freeze_hours", Label: "Freeze protection time (h)"},
-	{Key: "criteria.maintain_temp_c", Q: units.Temp, Label: "Heat tracing: maintain"},
-	{Key: "criteria.heat_trace_factor", Label: "Heat tracing safety factor"},
+// lineNum is a numeric field of the line form and where its value lives in the input.
+type lineNum struct {
+	numField
+	at func(in *analysis.Input) **float64 // allocates the parent struct when needed
 }
 
-// fittingFields are the fitting counts (stored beside the input).
-var fittingFields = []numField{
-	{Key: "fittings.elbows", Int: true, Label: "Elbows"},
-	{Key: "fittings.tees", Int: true, Label: "Tees"},
-	{Key: "fittings.valves", Int: true, Label: "Valves"},
-	{Key: "fittings.flange_pairs", Int: true, Label: "Flange pairs"},
-	{Key: "fittings.caps", Int: true, Label: "Caps"},
-	{Key: "fittings.strainers", Int: true, Label: "Strainers"},
-	{Key: "fittings.reducers", Int: true, Label: "Reducers"},
+func flowAt(in *analysis.Input) *analysis.Flow {
+	if in.Flow == nil {
+		in.Flow = &analysis.Flow{}
+	}
+	return in.Flow
 }
+
+func criteriaAt(in *analysis.Input) *analysis.Criteria {
+	if in.Criteria == nil {
+		in.Criteria = &analysis.Criteria{}
+	}
+	return in.Criteria
+}
+
+// lineNums are the numeric fields of analysis.Input on the form, keyed by their JSON
+// path so that analysis field errors land beside them.
+var lineNums = []lineNum{
+	{numField{Key: "pipe_od_mm", Q: units.Length, Label: "Outside diameter"}, func(in *analysis.Input) **float64 { return &in.PipeODmm }},
+	{numField{Key: "duct_width_mm", Q: units.Length, Label: "Duct width"}, func(in *analysis.Input) **float64 { return &in.DuctWidthMM }},
+	{numField{Key: "duct_height_mm", Q: units.Length, Label: "Duct height"}, func(in *analysis.Input) **float64 { return &in.DuctHeightMM }},
+	{numField{Key: "height_m", Q: units.LongLength, Label: "Height"}, func(in *analysis.Input) **float64 { return &in.HeightM }},
+	{numField{Key: "area_m2", Q: units.Area, Label: "Area"}, func(in *analysis.Input) **float64 { return &in.AreaM2 }},
+	{numField{Key: "length_m", Q: units.LongLength, Label: "Length"}, func(in *analysis.Input) **float64 { return &in.LengthM }},
+	{numField{Key: "operating_temp_c", Q: units.Temp, Label: "Operating temperature"}, func(in *analysis.Input) **float64 { return &in.OperatingTempC }},
+	{numField{Key: "steam_gauge_pressure_kpa", Q: units.Pressure, Label: "Steam pressure (gauge)"},
+		func(in *analysis.Input) **float64 { return &in.SteamGaugePressureKPa }},
+	{numField{Key: "flow.mass_flow_kg_s", Q: units.MassFlow, Label: "Mass flow"}, func(in *analysis.Input) **float64 { return &flowAt(in).MassFlowKgS }},
+	{numField{Key: "flow.cp_j_kgk", Q: cpQuantity, Label: "Specific heat"}, func(in *analysis.Input) **float64 { return &flowAt(in).CpJkgK }},
+	{numField{Key: "surface_emittance", Label: "Surface emittance"}, func(in *analysis.Input) **float64 { return &in.SurfaceEmittance }},
+	{numField{Key: "criteria.max_surface_temp_c", Q: units.Temp, Label: "Touch limit"},
+		func(in *analysis.Input) **float64 { return &criteriaAt(in).MaxSurfaceTempC }},
+	{numField{Key: "criteria.dew_margin_k", Q: units.TempDiff, Label: "Dew-point margin"},
+		func(in *analysis.Input) **float64 { return &criteriaAt(in).DewMarginK }},
+	{numField{Key: "criteria.max_heat_flow_w_per_m", Q: units.HeatFlowPerLength, Label: "Maximum heat flow"},
+		func(in *analysis.Input) **float64 { return &criteriaAt(in).MaxHeatFlowWPerM }},
+	{numField{Key: "criteria.max_temp_change_k", Q: units.TempDiff, Label: "Maximum temperature change"},
+		func(in *analysis.Input) **float64 { return &criteriaAt(in).MaxTempChangeK }},
+	{numField{Key: "criteria.freeze_hours", Label: "Freeze protection time (h)"},
+		func(in *analysis.Input) **float64 { return &criteriaAt(in).FreezeHours }},
+	{numField{Key: "criteria.maintain_temp_c", Q: units.Temp, Label: "Heat tracing: maintain"},
+		func(in *analysis.Input) **float64 { return &criteriaAt(in).MaintainTempC }},
+	{numField{Key: "criteria.heat_trace_factor", Label: "Heat tracing safety factor"},
+		func(in *analysis.Input) **float64 { return &criteriaAt(in).HeatTraceFactor }},
+}
+
+// lineNumFields are lineNums' fields (labels and units).
+var lineNumFields = func() []numField {
+	out := make([]numField, len(lineNums))
+	for i, n := range lineNums {
+		out[i] = n.numField
+	}
+	return out
+}()
+
+// fittingCount is a fitting count on the form and where it lives in the counts.
+type fittingCount struct {
+	numField
+	at func(f *analysis.Fittings) *int
+}
+
+// fittingCounts are the fitting counts (stored beside the input).
+var fittingCounts = []fittingCount{
+	{numField{Key: "fittings.elbows", Int: true, Label: "Elbows"}, func(f *analysis.Fittings) *int { return &f.Elbows }},
+	{numField{Key: "fittings.tees", Int: true, Label: "Tees"}, func(f *analysis.Fittings) *int { return &f.Tees }},
+	{numField{Key: "fittings.valves", Int: true, Label: "Valves"}, func(f *analysis.Fittings) *int { return &f.Valves }},
+	{numField{Key: "fittings.flange_pairs", Int: true, Label: "Flange pairs"}, func(f *analysis.Fittings) *int { return &f.FlangePairs }},
+	{numField{Key: "fittings.caps", Int: true, Label: "Caps"}, func(f *analysis.Fittings) *int { return &f.Caps }},
+	{numField{Key: "fittings.strainers", Int: true, Label: "Strainers"}, func(f *analysis.Fittings) *int { return &f.Strainers }},
+	{numField{Key: "fittings.reducers", Int: true, Label: "Reducers"}, func(f *analysis.Fittings) *int { return &f.Reducers }},
+}
+
+// fittingFields are fittingCounts' fields (labels).
+var fittingFields = func() []numField {
+	out := make([]numField, len(fittingCounts))
+	for i, n := range fittingCounts {
+		out[i] = n.numField
+	}
+	return out
+}()
 
 // shapes are the geometry choices: the form's "shape" sets geometry, orientation and facing.
 var shapes = []struct{ value, label, geometry, orientation, facing string }{
@@ -141,75 +194,103 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	if v, err := parseVersion(pf.Get("version")); err == nil {
 		lf.Version = &v
 	}
-	m := map[string]any{}
-	shape := pf.Get("shape")
-	found := false
-	for _, s := range shapes {
-		if s.value == shape {
-			found = true
-			m["geometry"] = s.geometry
-			if s.orientation != "" {
-				m["orientation"] = s.orientation
-			}
-			if s.facing != "" {
-				m["facing"] = s.facing
-			}
+	in := &lf.Input
+	if keep != nil {
+		*in = formHidden(*keep)
+	}
+	readShape(pf.Get("shape"), in, st)
+	in.PipeSize, in.PipeSchedule = strings.TrimSpace(pf.Get("pipe_size")), strings.TrimSpace(pf.Get("pipe_schedule"))
+	in.PipeMaterial, in.Fluid = strings.TrimSpace(pf.Get("pipe_material")), strings.TrimSpace(pf.Get("fluid"))
+	in.Jacket = strings.TrimSpace(pf.Get("jacket"))
+	for _, n := range lineNums {
+		if v, ok := readNum(r, n.numField, sys, st); ok {
+			x := v.(float64)
+			*n.at(in) = &x
 		}
 	}
-	if !found {
-		st.addError("shape", "choose a geometry")
-	}
-	for _, k := range []string{"pipe_size", "pipe_schedule", "pipe_material", "fluid", "jacket"} {
-		if v := strings.TrimSpace(pf.Get(k)); v != "" {
-			m[k] = v
-		}
-	}
-	nums := lineNumFields
-	readNums(r, nums, sys, st, m)
 	st.Values.Set("criteria.freeze_model", pf.Get("criteria.freeze_model"))
 	if v := strings.TrimSpace(pf.Get("criteria.freeze_model")); v != "" {
-		formSetPath(m, "criteria.freeze_model", v)
+		criteriaAt(in).FreezeModel = v
 	}
-	// Fields that do not apply to the chosen geometry are kept on the form but not sent.
-	geom, _ := m["geometry"].(string)
-	if geom != "pipe" {
-		delete(m, "pipe_size")
-		delete(m, "pipe_schedule")
-		delete(m, "pipe_od_mm")
-		delete(m, "pipe_material")
-	} else if m["pipe_size"] != nil {
-		delete(m, "pipe_od_mm") // a designation wins over a typed OD
+	dropInapplicable(in, st)
+	in.Layers = readLayers(r, sys, st)
+	for _, n := range fittingCounts {
+		if v, ok := readNum(r, n.numField, sys, st); ok {
+			*n.at(&lf.Fittings) = v.(int)
+		}
+	}
+	st.place(lf.validateMeta(), lineFieldKey(st))
+	return st, lf
+}
+
+// readNum reads one numeric field typed in the system's units (SI, or an int for a
+// count); ok is false when it is blank or wrong (then the message is on st).
+func readNum(r *http.Request, f numField, sys units.System, st *formState) (any, bool) {
+	raw := r.PostForm.Get(f.Key)
+	st.Values.Set(f.Key, raw)
+	if strings.TrimSpace(raw) == "" {
+		return nil, false
+	}
+	v, err := f.parse(sys, raw)
+	if err != nil {
+		st.addError(f.Key, err.Error())
+		return nil, false
+	}
+	return v, true
+}
+
+// readShape sets geometry, orientation and facing from the form's shape.
+func readShape(shape string, in *analysis.Input, st *formState) {
+	for _, s := range shapes {
+		if s.value == shape {
+			in.Geometry, in.Orientation, in.Facing = s.geometry, s.orientation, s.facing
+			return
+		}
+	}
+	st.addError("shape", "choose a geometry")
+}
+
+// dropInapplicable clears what does not apply to the chosen geometry (kept on the
+// form, not computed) and completes what the form implies.
+func dropInapplicable(in *analysis.Input, st *formState) {
+	switch {
+	case in.Geometry != "pipe":
+		in.PipeSize, in.PipeSchedule, in.PipeODmm, in.PipeMaterial = "", "", nil, ""
+	case in.PipeSize != "":
+		in.PipeODmm = nil // a designation wins over a typed OD
+	default:
+		in.PipeSchedule = ""
+	}
+	if in.Criteria != nil && in.Geometry != "pipe" { // heat tracing and freeze basis: pipes only
+		in.Criteria.MaintainTempC, in.Criteria.HeatTraceFactor, in.Criteria.FreezeModel = nil, nil, ""
+	}
+	if in.Geometry != "duct" {
+		in.DuctWidthMM, in.DuctHeightMM = nil, nil
+	}
+	if in.Geometry == "flat" {
+		in.LengthM = nil
 	} else {
-		delete(m, "pipe_schedule")
+		in.AreaM2 = nil
 	}
-	if cr, ok := m["criteria"].(map[string]any); ok && geom != "pipe" { // heat tracing and freeze basis: pipes only
-		delete(cr, "maintain_temp_c")
-		delete(cr, "heat_trace_factor")
-		delete(cr, "freeze_model")
+	if in.Orientation != "vertical" {
+		in.HeightM = nil
 	}
-	if geom != "duct" {
-		delete(m, "duct_width_mm")
-		delete(m, "duct_height_mm")
+	if in.SteamGaugePressureKPa != nil && in.Fluid == "" {
+		in.Fluid = "steam"
 	}
-	if geom == "flat" {
-		delete(m, "length_m")
-	} else {
-		delete(m, "area_m2")
-	}
-	if m["orientation"] != "vertical" {
-		delete(m, "height_m")
-	}
-	if m["steam_gauge_pressure_kpa"] != nil && m["fluid"] == nil {
-		m["fluid"] = "steam"
-	}
-	if fl, ok := m["flow"].(map[string]any); ok && fl["mass_flow_kg_s"] == nil {
-		if _, cpOnly := fl["cp_j_kgk"]; cpOnly {
+	if in.Flow != nil && in.Flow.MassFlowKgS == nil {
+		if in.Flow.CpJkgK != nil {
 			st.addError("flow.mass_flow_kg_s", "is required when a specific heat is given")
 		}
-		delete(m, "flow")
+		in.Flow = nil
 	}
-	// Layers: rows with neither material nor thickness are ignored.
-	var layers []any
+}
+
+// readLayers reads the layer rows; rows with neither material nor thickness are
+// ignored, and st remembers which row each layer came from.
+func readLayers(r *http.Request, sys units.System, st *formState) []analysis.LayerInput {
+	pf := r.PostForm
+	layers := []analysis.LayerInput{}
 	for i := 0; i < maxLayerRows; i++ {
 		mk, tk := fmt.Sprintf("layers[%d].material", i), fmt.Sprintf("layers[%d].thickness_mm", i)
 		mat, th := strings.TrimSpace(pf.Get(mk)), strings.TrimSpace(pf.Get(tk))
@@ -221,11 +302,8 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 		if mat == "" && th == "" {
 			continue
 		}
-		idx := len(layers)
-		layer := map[string]any{}
-		if mat != "" {
-			layer["material"] = mat
-		} else {
+		layer := analysis.LayerInput{Material: mat}
+		if mat == "" {
 			st.addError(mk, "choose a material")
 		}
 		if th == "" {
@@ -233,32 +311,15 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 		} else if v, err := units.Parse(units.Length, sys, th); err != nil {
 			st.addError(tk, err.Error())
 		} else {
-			layer["thickness_mm"] = formRoundSig(v)
+			t := formRoundSig(v)
+			layer.ThicknessMM = &t
 		}
-		if idx != i { // analysis numbers the layers it got; the form numbers its rows
+		if idx := len(layers); idx != i { // analysis numbers the layers it got; the form numbers its rows
 			st.layerRow = append(st.layerRow, [2]int{idx, i})
 		}
 		layers = append(layers, layer)
 	}
-	if layers == nil {
-		layers = []any{}
-	}
-	m["layers"] = layers
-	if keep != nil {
-		m = keepHidden(jsonMap(*keep), m)
-	}
-	js, _ := json.Marshal(m)
-	if err := analysis.DecodeStrict(js, &lf.Input); err != nil {
-		st.place(asFieldErrors(err), lineFieldKey(st))
-	}
-	fit := map[string]any{}
-	readNums(r, fittingFields, sys, st, fit)
-	if fm, ok := fit["fittings"]; ok {
-		fjs, _ := json.Marshal(fm)
-		_ = json.Unmarshal(fjs, &lf.Fittings)
-	}
-	st.place(lf.validateMeta(), lineFieldKey(st))
-	return st, lf
+	return layers
 }
 
 // lineFieldKey maps an analysis field path to the form field showing it.
@@ -332,11 +393,15 @@ func lineFormValues(l store.Line, in analysis.Input, fit analysis.Fittings, sys 
 	st.Values.Set("pipe_material", in.PipeMaterial)
 	st.Values.Set("fluid", in.Fluid)
 	st.Values.Set("jacket", in.Jacket)
-	writeNums(jsonMap(in), lineNumFields, sys, st)
-	writeNums(map[string]any{"fittings": jsonMap(fit)}, fittingFields, sys, st)
-	for _, f := range fittingFields {
-		if st.Values.Get(f.Key) == "0" {
-			st.Values.Set(f.Key, "")
+	shown := in // the accessors allocate parents: read from a copy
+	for _, n := range lineNums {
+		if p := *n.at(&shown); p != nil {
+			st.Values.Set(n.Key, n.format(sys, *p))
+		}
+	}
+	for _, n := range fittingCounts {
+		if c := *n.at(&fit); c != 0 {
+			st.Values.Set(n.Key, strconv.Itoa(c))
 		}
 	}
 	for i, layer := range in.Layers {
@@ -392,35 +457,23 @@ func pipeSizeOptions(sys units.System, current string) []web.Choice {
 	return out
 }
 
-// formInputKeys are the input keys the line form shows (criteria: the limits on the form).
-var formInputKeys = []string{"geometry", "orientation", "facing", "pipe_size", "pipe_schedule", "pipe_od_mm", "pipe_material",
-	"duct_width_mm", "duct_height_mm", "height_m", "area_m2", "length_m", "fluid", "operating_temp_c",
-	"steam_gauge_pressure_kpa", "flow", "layers", "jacket", "surface_emittance"}
-
-var formCriteriaKeys = []string{"max_surface_temp_c", "dew_margin_k", "max_heat_flow_w_per_m", "max_temp_change_k", "freeze_hours",
-	"freeze_model", "maintain_temp_c", "heat_trace_factor"}
-
-// keepHidden lays the form's input over the stored input's keys that the form does not show.
-func keepHidden(stored, form map[string]any) map[string]any {
-	for _, k := range formInputKeys {
-		delete(stored, k)
-	}
-	if cr, ok := stored["criteria"].(map[string]any); ok {
-		for _, k := range formCriteriaKeys {
-			delete(cr, k)
+// formHidden is the stored input less what the line form shows, so that saving the
+// form keeps what was set through the API or an import.
+func formHidden(stored analysis.Input) analysis.Input {
+	h := stored
+	h.Geometry, h.Orientation, h.Facing = "", "", ""
+	h.PipeSize, h.PipeSchedule, h.PipeODmm, h.PipeMaterial = "", "", nil, ""
+	h.DuctWidthMM, h.DuctHeightMM, h.HeightM, h.AreaM2, h.LengthM = nil, nil, nil, nil, nil
+	h.Fluid, h.OperatingTempC, h.SteamGaugePressureKPa, h.Flow = "", nil, nil, nil
+	h.Layers, h.Jacket, h.SurfaceEmittance = nil, "", nil
+	if stored.Criteria != nil {
+		cr := *stored.Criteria
+		cr.MaxSurfaceTempC, cr.DewMarginK, cr.MaxHeatFlowWPerM, cr.MaxTempChangeK, cr.FreezeHours = nil, nil, nil, nil, nil
+		cr.FreezeModel, cr.MaintainTempC, cr.HeatTraceFactor = "", nil, nil
+		h.Criteria = &cr
+		if cr == (analysis.Criteria{}) {
+			h.Criteria = nil
 		}
-		if fc, ok := form["criteria"].(map[string]any); ok {
-			for k, v := range fc {
-				cr[k] = v
-			}
-		}
-		if len(cr) == 0 {
-			delete(stored, "criteria")
-		}
-		delete(form, "criteria")
 	}
-	for k, v := range form {
-		stored[k] = v
-	}
-	return stored
+	return h
 }
