@@ -41,6 +41,9 @@ func cmpCharts(sides []cmpSide, sys units.System, qQty units.Quantity) []web.Lin
 	for i, sd := range sides {
 		var pl, ph, ps []web.ChartPoint
 		for _, r := range sd.rows {
+			if r.AsFound { // not a thickness of the curve
+				continue
+			}
 			if r.LifeCycleCost != nil {
 				pl = append(pl, web.ChartPoint{X: x(r.ThicknessMM), Y: *r.LifeCycleCost})
 			}

@@ -42,7 +42,7 @@ func cmpCompareSide(set analysis.ProjectSettings, l store.Line, own analysis.Inp
 	thick := slices.Clone(out.Sizing.Candidates)
 	priced := map[float64]analysis.EconomicsRow{}
 	for _, r := range out.Economics {
-		if r.InstalledCost != nil && r.ThicknessMM > 0 { // not the bare row
+		if r.InstalledCost != nil && r.ThicknessMM > 0 && !r.AsFound { // not the bare or as-found row
 			priced[r.ThicknessMM] = r
 			side.priced = true
 			if !slices.Contains(thick, r.ThicknessMM) {
@@ -71,7 +71,7 @@ func cmpCompareSide(set analysis.ProjectSettings, l store.Line, own analysis.Inp
 		return side, err
 	}
 	for _, r := range every.Economics {
-		if p, ok := priced[r.ThicknessMM]; ok {
+		if p, ok := priced[r.ThicknessMM]; ok && !r.AsFound {
 			r = p
 		} else if eff.Economics == nil {
 			r.AnnualCost = 0
@@ -267,6 +267,13 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 			vs.PricesNote = "no installed costs match this material and size"
 		}
 		mins := cmpCriterionMins(sd.out.Sizing)
+		var found *analysis.EconomicsRow
+		for i := range sd.rows {
+			if sd.rows[i].AsFound {
+				found = &sd.rows[i]
+				v.Head.HasFound = true
+			}
+		}
 		for _, r := range sd.rows {
 			row := web.CompareRow{
 				ThicknessMM: strconv.FormatFloat(r.ThicknessMM, 'f', -1, 64),
@@ -283,7 +290,7 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 				Incremental: cmpYears(r.IncrementalPaybackYears),
 				NPV:         cmpMoneyPtr(r.NPV),
 				LCC:         cmpMoneyPtr(r.LifeCycleCost),
-				Current:     i == 0 && cmpAbs(r.ThicknessMM-outerNow) < 0.005,
+				Current:     i == 0 && !r.AsFound && cmpAbs(r.ThicknessMM-outerNow) < 0.005,
 			}
 			row.SavingBare = "—"
 			if r.AnnualSavings != nil {
@@ -292,17 +299,25 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 			if eff.Economics == nil || sd.out.EnergyBasis == nil {
 				row.Cost, row.SavingBare = "—", "—"
 			}
-			if r.ThicknessMM == 0 {
+			row.SavingFound = "—"
+			if found != nil && !r.AsFound && row.Cost != "—" {
+				row.SavingFound = cmpMoney(found.AnnualCost - r.AnnualCost)
+			}
+			switch {
+			case r.AsFound:
+				row.Thickness, row.AsFound = "as found ("+units.Format(units.Length, sys, r.ThicknessMM)+")", true
+				row.Installed, row.Simple, row.Incremental, row.NPV, row.LCC = "in place", "—", "—", "—", "—"
+			case r.ThicknessMM == 0:
 				row.Thickness, row.Bare = "bare", true
 			}
 			if r.InstalledCost == nil {
 				row.Simple, row.Incremental = "—", "—"
 			}
-			if e := sd.out.Sizing.EconomicMM; e != nil && *e == r.ThicknessMM {
+			if e := sd.out.Sizing.EconomicMM; e != nil && *e == r.ThicknessMM && !r.AsFound {
 				row.Economic = true
 			}
 			for _, m := range mins {
-				if m.mm != nil && *m.mm == r.ThicknessMM {
+				if m.mm != nil && *m.mm == r.ThicknessMM && !r.AsFound {
 					row.Minimums = append(row.Minimums, m.label)
 				}
 			}

@@ -62,7 +62,7 @@ func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
 	sys := cmpSystem(p)
 	cur := set.Economics.CurrencyCode()
 	v := web.EconomicsView{Assets: s.assets.urls, Title: "Economics: " + p.Name, ProjectURL: cmpProjectURL(p.ID),
-		CostsURL: cmpCostsURL(p.ID), EnergyHead: "Energy bought, kWh/year", Currency: cur}
+		CostsURL: cmpCostsURL(p.ID), AuditURL: cmpProjectURL(p.ID) + "/audit", EnergyHead: "Energy bought, kWh/year", Currency: cur}
 	if sys == units.US {
 		v.Energy2Head = "Energy bought, MMBtu/year"
 	}
