@@ -109,8 +109,18 @@ func (s *Server) lineView(c *lineCtx, st *formState, res web.LineResults) web.Li
 		v.Materials = append(v.Materials, web.Choice{Value: m.Slug, Label: label})
 	}
 	v.Jackets = []web.Choice{{Value: "", Label: "none (give an emittance)"}}
+	v.CoverJackets = []web.Choice{{Value: "", Label: "the line's jacket"}}
 	for _, j := range c.lib.JacketChoices() {
-		v.Jackets = append(v.Jackets, web.Choice{Value: j.Slug, Label: fmt.Sprintf("%s (ε %.2f)", j.Name, j.Emittance)})
+		ch := web.Choice{Value: j.Slug, Label: fmt.Sprintf("%s (ε %.2f)", j.Name, j.Emittance)}
+		v.Jackets = append(v.Jackets, ch)
+		v.CoverJackets = append(v.CoverJackets, ch)
+	}
+	v.Finishes = []web.Choice{{Value: "", Label: "insulated (as the line)"}, {Value: analysis.FinishCover, Label: "removable cover"},
+		{Value: analysis.FinishBare, Label: "bare"}}
+	v.SupportKinds = []web.Choice{{Value: "", Label: "default (insert below ambient, else clamp)"},
+		{Value: analysis.SupportInsert, Label: "insert and shield"}, {Value: analysis.SupportClamp, Label: "clamp on the pipe"}}
+	for _, k := range catalog.FittingKinds {
+		v.FittingKinds = append(v.FittingKinds, web.Choice{Value: k, Label: catalog.FittingKindName(k)})
 	}
 	return v
 }

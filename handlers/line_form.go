@@ -74,6 +74,71 @@ var lineNums = []lineNum{
 		func(in *analysis.Input) **float64 { return &criteriaAt(in).MaintainTempC }},
 	{numField{Key: "criteria.heat_trace_factor", Label: "Heat tracing safety factor"},
 		func(in *analysis.Input) **float64 { return &criteriaAt(in).HeatTraceFactor }},
+	{numField{Key: "fitting_cover.thickness_mm", Q: units.Length, Label: "Cover thickness"},
+		func(in *analysis.Input) **float64 { return &coverAt(in).ThicknessMM }},
+	{numField{Key: "supports.spacing_m", Q: units.LongLength, Label: "Support spacing"},
+		func(in *analysis.Input) **float64 { return &supportsAt(in).SpacingM }},
+	{numField{Key: "supports.w_per_k", Label: "Heat-transfer value per support (W/K)"},
+		func(in *analysis.Input) **float64 { return &supportsAt(in).WPerK }},
+}
+
+func coverAt(in *analysis.Input) *analysis.FittingCover {
+	if in.FittingCover == nil {
+		in.FittingCover = &analysis.FittingCover{}
+	}
+	return in.FittingCover
+}
+
+func supportsAt(in *analysis.Input) *analysis.Supports {
+	if in.Supports == nil {
+		in.Supports = &analysis.Supports{}
+	}
+	return in.Supports
+}
+
+func finishAt(in *analysis.Input) *analysis.FittingFinish {
+	if in.FittingFinish == nil {
+		in.FittingFinish = &analysis.FittingFinish{}
+	}
+	return in.FittingFinish
+}
+
+// lineChoice is a text choice of the line form and where it lives in the input.
+type lineChoice struct {
+	key string
+	at  func(in *analysis.Input) *string // allocates the parent struct when needed
+}
+
+// lineChoices are the choices of fittings and supports on the form: each kind's
+// finish, the covers' jacket and the supports' kind.
+var lineChoices = func() []lineChoice {
+	out := []lineChoice{
+		{"fitting_cover.jacket", func(in *analysis.Input) *string { return &coverAt(in).Jacket }},
+		{"supports.kind", func(in *analysis.Input) *string { return &supportsAt(in).Kind }},
+	}
+	for _, k := range catalog.FittingKinds {
+		out = append(out, lineChoice{"fitting_finish." + k, func(in *analysis.Input) *string { return fittingFinishField(finishAt(in), k) }})
+	}
+	return out
+}()
+
+// fittingFinishField is the field of one kind in f.
+func fittingFinishField(f *analysis.FittingFinish, kind string) *string {
+	switch kind {
+	case "elbows":
+		return &f.Elbows
+	case "tees":
+		return &f.Tees
+	case "valves":
+		return &f.Valves
+	case "flange_pairs":
+		return &f.FlangePairs
+	case "caps":
+		return &f.Caps
+	case "strainers":
+		return &f.Strainers
+	}
+	return &f.Reducers
 }
 
 // lineNumFields are lineNums' fields (labels and units).
@@ -212,6 +277,12 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	if v := strings.TrimSpace(pf.Get("criteria.freeze_model")); v != "" {
 		criteriaAt(in).FreezeModel = v
 	}
+	for _, c := range lineChoices {
+		st.Values.Set(c.key, pf.Get(c.key))
+		if v := strings.TrimSpace(pf.Get(c.key)); v != "" {
+			*c.at(in) = v
+		}
+	}
 	dropInapplicable(in, st)
 	in.Layers = readLayers(r, sys, st)
 	for _, n := range fittingCounts {
@@ -266,6 +337,12 @@ func dropInapplicable(in *analysis.Input, st *formState) {
 	}
 	if in.Geometry != "duct" {
 		in.DuctWidthMM, in.DuctHeightMM = nil, nil
+	}
+	if in.Geometry != "pipe" {
+		in.Supports = nil
+	}
+	if in.Geometry == "flat" {
+		in.FittingFinish, in.FittingCover = nil, nil
 	}
 	if in.Geometry == "flat" {
 		in.LengthM = nil
@@ -331,6 +408,9 @@ func lineFieldKey(st *formState) func(string) (string, bool) {
 	}
 	for _, f := range fittingFields {
 		known[f.Key] = true
+	}
+	for _, c := range lineChoices {
+		known[c.key] = true
 	}
 	alias := map[string]string{"geometry": "shape", "orientation": "shape", "facing": "shape", "flow": "flow.mass_flow_kg_s",
 		"criteria.personnel_protection": "criteria.max_surface_temp_c", "width_m": "height_m", "layers": "layers[0].material"}
@@ -404,6 +484,11 @@ func lineFormValues(l store.Line, in analysis.Input, fit analysis.Fittings, sys 
 			st.Values.Set(n.Key, strconv.Itoa(c))
 		}
 	}
+	for _, c := range lineChoices {
+		if v := *c.at(&shown); v != "" {
+			st.Values.Set(c.key, v)
+		}
+	}
 	for i, layer := range in.Layers {
 		st.Values.Set(fmt.Sprintf("layers[%d].material", i), layer.Material)
 		if layer.ThicknessMM != nil {
@@ -466,6 +551,7 @@ func formHidden(stored analysis.Input) analysis.Input {
 	h.DuctWidthMM, h.DuctHeightMM, h.HeightM, h.AreaM2, h.LengthM = nil, nil, nil, nil, nil
 	h.Fluid, h.OperatingTempC, h.SteamGaugePressureKPa, h.Flow = "", nil, nil, nil
 	h.Layers, h.Jacket, h.SurfaceEmittance = nil, "", nil
+	h.FittingFinish, h.FittingCover, h.Supports = nil, nil, nil // all on the form
 	if stored.Criteria != nil {
 		cr := *stored.Criteria
 		cr.MaxSurfaceTempC, cr.DewMarginK, cr.MaxHeatFlowWPerM, cr.MaxTempChangeK, cr.FreezeHours = nil, nil, nil, nil, nil

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"lagwright/analysis"
+	"lagwright/catalog"
 	"lagwright/field"
 	"lagwright/units"
 	"lagwright/web"
@@ -43,6 +44,24 @@ func buildResults(eff analysis.Input, st analysis.Stored, sys units.System, name
 	row("heat-run", "Heat flow per run", fp(units.HeatFlow, o.HeatFlowW))
 	if o.EquivalentLengthM != nil {
 		row("equiv-length", "Run with fittings", f(units.LongLength, *o.EquivalentLengthM))
+	}
+	if o.StraightRunHeatW != nil && (len(o.Fittings) > 0 || o.Supports != nil) {
+		row("heat-straight", "  straight run", f(units.HeatFlow, *o.StraightRunHeatW))
+	}
+	for _, fo := range o.Fittings {
+		if fo.HeatW != nil {
+			row("heat-"+fo.Kind, fmt.Sprintf("  %d × %s, %s", fo.Count, catalog.FittingKindName(fo.Kind), fo.Finish), f(units.HeatFlow, *fo.HeatW))
+		}
+	}
+	if w, ok := o.FittingsHeatW["fittings_equiv_length"]; ok {
+		row("heat-fittings", "  fittings (equivalent length given)", f(units.HeatFlow, w))
+	}
+	if sp := o.Supports; sp != nil {
+		v := fmt.Sprintf("%d %s at %s", sp.Count, sp.Kind, f(units.LongLength, sp.SpacingM))
+		if sp.HeatW != nil {
+			v += ", " + f(units.HeatFlow, *sp.HeatW)
+		}
+		row("supports", "  supports", v)
 	}
 	row("surface-temp", "Surface temperature", f(units.Temp, o.SurfaceTempC))
 	for _, fc := range o.Faces {

@@ -36,7 +36,7 @@ func (s *Server) schedulePage(w http.ResponseWriter, r *http.Request) {
 		Assets: s.assets.urls, ProjectName: sc.Header.Project, ProjectURL: base,
 		Revision: sc.Header.RevisionText(), IsDraft: sc.Header.Revision == 0, Date: sc.Header.Date.Format("2006-01-02"),
 		Conditions: v.Conditions, Methods: sc.Header.Methods, Cautions: sc.Header.Cautions,
-		Rows: webTable(v.Rows), ByMaterial: webTable(v.ByMaterial), ByJacket: webTable(v.ByJacket), Grand: webTable(v.Grand),
+		Rows: webTable(v.Rows), ByMaterial: webTable(v.ByMaterial), Items: webTable(v.Items), ByJacket: webTable(v.ByJacket), Grand: webTable(v.Grand),
 		CSVURL: base + "/schedule.csv" + q, XLSXURL: base + "/schedule.xlsx" + q, PDFURL: base + "/schedule.pdf" + q,
 		IssueURL: base + "/schedule/revisions",
 	}

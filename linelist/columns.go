@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"lagwright/analysis"
+	"lagwright/catalog"
 	"lagwright/units"
 )
 
@@ -67,6 +68,9 @@ var (
 	// exactly (Btu(IT), NIST SP 811 Appendix B).
 	uCp = []headerUnit{{norm: "j/kgk", label: "J/kg·K", factor: 1, sys: units.SI}, {norm: "btu/lbf", label: "Btu/lb·°F", factor: 4186.8, sys: units.US},
 		{norm: "kj/kgk", label: "kJ/kg·K", factor: 1000, sys: units.SI}}
+	// Point heat-transfer value of a support: 1 Btu/h·°F = 0.5275279 W/K (Btu(IT)
+	// 1055.05585 J, NIST SP 811 Appendix B; 1 °F = 5/9 K).
+	uWPerK = []headerUnit{{norm: "w/k", label: "W/K", factor: 1, sys: units.SI}, {norm: "btu/hf", label: "Btu/h·°F", factor: 1055.05585262 / 3600 * 1.8, sys: units.US}}
 	uHours = []headerUnit{{norm: "h", label: "h", factor: 1, sys: units.SI}, {norm: "h", label: "h", factor: 1, sys: units.US}}
 )
 
@@ -83,6 +87,9 @@ type builder struct {
 	layers [maxLayers]analysis.LayerInput
 	flow   analysis.Flow
 	crit   analysis.Criteria
+	finish analysis.FittingFinish
+	cover  analysis.FittingCover
+	supp   analysis.Supports
 }
 
 // maxLayers is the number of layer columns a line list has.
@@ -129,6 +136,37 @@ func buildColumns() []column {
 		count("caps", func(f *analysis.Fittings) *int { return &f.Caps }),
 		count("strainers", func(f *analysis.Fittings) *int { return &f.Strainers }),
 		count("reducers", func(f *analysis.Fittings) *int { return &f.Reducers }),
+	}
+	for _, k := range catalog.FittingKinds {
+		cols = append(cols, text(k+"_finish", "fitting_finish."+k, func(b *builder) *string { return finishAt(&b.finish, k) },
+			func(r *Row) string {
+				if r.Input.FittingFinish == nil {
+					return ""
+				}
+				return *finishAt(r.Input.FittingFinish, k)
+			}))
+	}
+	cols = append(cols,
+		qty("cover_thickness", "fitting_cover.thickness_mm", units.Length, uLength, func(b *builder) **float64 { return &b.cover.ThicknessMM },
+			func(in *analysis.Input) *float64 {
+				if in.FittingCover == nil {
+					return nil
+				}
+				return in.FittingCover.ThicknessMM
+			}),
+		text("cover_jacket", "fitting_cover.jacket", func(b *builder) *string { return &b.cover.Jacket }, func(r *Row) string {
+			if r.Input.FittingCover == nil {
+				return ""
+			}
+			return r.Input.FittingCover.Jacket
+		}),
+		qty("support_spacing", "supports.spacing_m", units.LongLength, uRun, func(b *builder) **float64 { return &b.supp.SpacingM },
+			func(in *analysis.Input) *float64 { return supports(in).SpacingM }),
+		text("support_kind", "supports.kind", func(b *builder) *string { return &b.supp.Kind }, func(r *Row) string { return supports(&r.Input).Kind }),
+		qty("support_heat_value", "supports.w_per_k", 0, uWPerK, func(b *builder) **float64 { return &b.supp.WPerK },
+			func(in *analysis.Input) *float64 { return supports(in).WPerK }),
+	)
+	cols = append(cols,
 		text("fluid", "fluid", func(b *builder) *string { return &b.row.Input.Fluid }, func(r *Row) string { return r.Input.Fluid }),
 		qty("operating_temp", "operating_temp_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.row.Input.OperatingTempC },
 			func(in *analysis.Input) *float64 { return in.OperatingTempC }),
@@ -151,7 +189,7 @@ func buildColumns() []column {
 				}
 				return in.Flow.CpJkgK
 			}),
-	}
+	)
 	for i := range maxLayers {
 		n := strconv.Itoa(i + 1)
 		p := fmt.Sprintf("layers[%d].", i)
@@ -243,4 +281,30 @@ func (c column) unitHelp() string {
 		}
 	}
 	return strings.Join(s, " or ")
+}
+
+// finishAt is the finish of a fitting kind in f.
+func finishAt(f *analysis.FittingFinish, kind string) *string {
+	switch kind {
+	case "elbows":
+		return &f.Elbows
+	case "tees":
+		return &f.Tees
+	case "valves":
+		return &f.Valves
+	case "flange_pairs":
+		return &f.FlangePairs
+	case "caps":
+		return &f.Caps
+	case "strainers":
+		return &f.Strainers
+	}
+	return &f.Reducers
+}
+
+func supports(in *analysis.Input) *analysis.Supports {
+	if in.Supports == nil {
+		return &analysis.Supports{}
+	}
+	return in.Supports
 }

@@ -25,6 +25,7 @@ import (
 	"unicode/utf8"
 
 	"lagwright/analysis"
+	"lagwright/catalog"
 	"lagwright/units"
 )
 
@@ -131,6 +132,17 @@ func columnOf(field string) (int, bool) {
 		return byName["jacket"], true
 	case "fittings_equiv_length_m":
 		return byName["length"], true
+	case "fittings", "fitting_finish":
+		return byName["elbows"], true
+	case "fitting_cover":
+		return byName["cover_thickness"], true
+	case "supports":
+		return byName["support_kind"], true
+	}
+	if k, ok := strings.CutPrefix(f, "fittings."); ok {
+		if i, ok := byName[k]; ok {
+			return i, true
+		}
 	}
 	for i, c := range columns {
 		if c.field != "" && c.field == f {
@@ -582,6 +594,23 @@ func finish(b *builder, h *header, rowNo int, c *collector) {
 	if b.crit != (analysis.Criteria{}) {
 		cr := b.crit
 		in.Criteria = &cr
+	}
+	if b.finish != (analysis.FittingFinish{}) {
+		f := b.finish
+		for _, k := range catalog.FittingKinds {
+			p := finishAt(&f, k)
+			*p = strings.ToLower(*p)
+		}
+		in.FittingFinish = &f
+	}
+	if b.cover != (analysis.FittingCover{}) {
+		cv := b.cover
+		in.FittingCover = &cv
+	}
+	if b.supp != (analysis.Supports{}) {
+		sp := b.supp
+		sp.Kind = strings.ToLower(sp.Kind)
+		in.Supports = &sp
 	}
 }
 

@@ -44,7 +44,7 @@ var fixtureLines = []fixtureLine{
 	{"STM-301", "Steam 150 psig to the sterilisers", "indoor", "exposed", "",
 		`{"geometry":"pipe","pipe_size":"NPS 2","steam_gauge_pressure_kpa":1034,"length_m":30.48,
 		  "layers":[{"material":"calcium_silicate_c533_t1","thickness_mm":50.8},{"material":"calcium_silicate_c533_t1","thickness_mm":50.8}],
-		  "jacket":"aluminium_new"}`,
+		  "jacket":"aluminium_new","fitting_finish":{"valves":"bare","flange_pairs":"cover"},"fitting_cover":{"thickness_mm":50.8}}`,
 		analysis.Fittings{Elbows: 3, Valves: 2, FlangePairs: 2}},
 	{"DCW-401", "Domestic cold water on the roof", "outdoor", "exposed", "drain down in winter shutdown",
 		`{"geometry":"pipe","pipe_size":"CTS 1","operating_temp_c":10,"length_m":20,

@@ -321,6 +321,7 @@ func WriteSchedulePDF(w io.Writer, s Schedule) error {
 	d.AddPage()
 	d.tableSection("Schedule", v.Rows, 5.5, 6)
 	d.tableSection("Totals by material, size and thickness", v.ByMaterial, 8, 3)
+	d.tableSection("Fittings and supports by material, size and thickness", v.Items, 8, 3)
 	d.tableSection("Totals by jacket", v.ByJacket, 8, 3)
 	d.tableSection("Grand totals", v.Grand, 8, 2)
 	if err := d.Error(); err != nil {

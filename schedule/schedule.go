@@ -29,6 +29,7 @@ import (
 
 	"lagwright/analysis"
 	"lagwright/calc"
+	"lagwright/catalog"
 	"lagwright/units"
 )
 
@@ -100,41 +101,48 @@ type Conditions struct {
 // Row is one line of the schedule, in SI. Pointers are nil where a value does not apply
 // or could not be computed.
 type Row struct {
-	LineID          int64             `json:"line_id"`
-	Tag             string            `json:"tag"`
-	Service         string            `json:"service"`
-	Purpose         string            `json:"purpose"`
-	Location        string            `json:"location"`
-	Exposure        string            `json:"exposure"`
-	Geometry        string            `json:"geometry"`
-	Size            string            `json:"size"`             // "NPS 4", "CTS 1", "OD 60.3 mm", "800 × 400 mm", "flat"
-	SizeSI          bool              `json:"size_in_si"`       // Size was written from SI dimensions (rewritten for US display)
-	PipeODmm        *float64          `json:"pipe_od_mm"`       // pipes
-	DuctWmm         *float64          `json:"duct_width_mm"`    // ducts
-	DuctHmm         *float64          `json:"duct_height_mm"`   // ducts
-	LengthM         *float64          `json:"length_m"`         // pipes and ducts
-	AreaM2          *float64          `json:"area_m2"`          // flat surfaces
-	Fittings        analysis.Fittings `json:"fittings"`         // counts
-	FittingsM       float64           `json:"fittings_equiv_m"` // their equivalent insulated length
-	InsulatedM      *float64          `json:"insulated_length_m"`
-	Material        string            `json:"material"`
-	Spec            string            `json:"spec"`
-	Layers          []float64         `json:"layers_mm"`              // installed thickness of each layer, inner to outer
-	ThicknessMM     float64           `json:"thickness_mm"`           // nominal
-	InstalledMM     *float64          `json:"installed_thickness_mm"` // compressed blankets only
-	Jacket          string            `json:"jacket"`
-	VapourRetarder  bool              `json:"vapour_retarder"`
-	OuterDiameterMM *float64          `json:"outer_diameter_mm"`
-	JacketAreaM2    *float64          `json:"jacket_area_m2"`
-	VolumeM3        *float64          `json:"volume_m3"`
-	HeatFlowW       *float64          `json:"heat_flow_w"` // per run; negative: heat gained
-	HeatFlowWPerM   *float64          `json:"heat_flow_w_per_m"`
-	SurfaceC        *float64          `json:"surface_temp_c"`
-	Governing       string            `json:"governing"`   // criterion that governs, in words
-	EnergyCode      string            `json:"energy_code"` // "pass" | "fail" | "not required" | "" (not checked)
-	HeatTraceWPerM  *float64          `json:"heat_trace_w_per_m"`
-	Notes           string            `json:"notes"`
-	Error           bool              `json:"error,omitempty"` // the line could not be analysed
+	LineID    int64             `json:"line_id"`
+	Tag       string            `json:"tag"`
+	Service   string            `json:"service"`
+	Purpose   string            `json:"purpose"`
+	Location  string            `json:"location"`
+	Exposure  string            `json:"exposure"`
+	Geometry  string            `json:"geometry"`
+	Size      string            `json:"size"`             // "NPS 4", "CTS 1", "OD 60.3 mm", "800 × 400 mm", "flat"
+	SizeSI    bool              `json:"size_in_si"`       // Size was written from SI dimensions (rewritten for US display)
+	PipeODmm  *float64          `json:"pipe_od_mm"`       // pipes
+	DuctWmm   *float64          `json:"duct_width_mm"`    // ducts
+	DuctHmm   *float64          `json:"duct_height_mm"`   // ducts
+	LengthM   *float64          `json:"length_m"`         // pipes and ducts
+	AreaM2    *float64          `json:"area_m2"`          // flat surfaces
+	Fittings  analysis.Fittings `json:"fittings"`         // counts
+	FittingsM float64           `json:"fittings_equiv_m"` // the insulated fittings' equivalent length
+	// Finish is each fitting kind's finish; CoverMM the removable covers' own thickness
+	// (nil: the line's build-up).
+	Finish          analysis.FittingFinish `json:"fitting_finish"`
+	CoverMM         *float64               `json:"cover_thickness_mm,omitempty"`
+	Supports        int                    `json:"supports"`               // count over the run
+	SupportKind     string                 `json:"support_kind,omitempty"` // "insert" (with shield) | "clamp"
+	SupportsHeatW   *float64               `json:"supports_heat_w"`        // cold lines: heat gained through them (negative)
+	InsulatedM      *float64               `json:"insulated_length_m"`
+	Material        string                 `json:"material"`
+	Spec            string                 `json:"spec"`
+	Layers          []float64              `json:"layers_mm"`              // installed thickness of each layer, inner to outer
+	ThicknessMM     float64                `json:"thickness_mm"`           // nominal
+	InstalledMM     *float64               `json:"installed_thickness_mm"` // compressed blankets only
+	Jacket          string                 `json:"jacket"`
+	VapourRetarder  bool                   `json:"vapour_retarder"`
+	OuterDiameterMM *float64               `json:"outer_diameter_mm"`
+	JacketAreaM2    *float64               `json:"jacket_area_m2"`
+	VolumeM3        *float64               `json:"volume_m3"`
+	HeatFlowW       *float64               `json:"heat_flow_w"` // per run; negative: heat gained
+	HeatFlowWPerM   *float64               `json:"heat_flow_w_per_m"`
+	SurfaceC        *float64               `json:"surface_temp_c"`
+	Governing       string                 `json:"governing"`   // criterion that governs, in words
+	EnergyCode      string                 `json:"energy_code"` // "pass" | "fail" | "not required" | "" (not checked)
+	HeatTraceWPerM  *float64               `json:"heat_trace_w_per_m"`
+	Notes           string                 `json:"notes"`
+	Error           bool                   `json:"error,omitempty"` // the line could not be analysed
 }
 
 // Purposes of insulation, in the words of the schedule.
@@ -248,6 +256,15 @@ func buildRow(l Line, r Resolver) Row {
 	}
 	if in.FittingsEquivLengthM != nil && in.LengthM != nil {
 		row.FittingsM = *in.FittingsEquivLengthM
+	}
+	if in.FittingFinish != nil {
+		row.Finish = *in.FittingFinish
+	}
+	if in.FittingCover != nil {
+		row.CoverMM = in.FittingCover.ThicknessMM
+	}
+	if o := l.Output; o != nil && o.Supports != nil {
+		row.Supports, row.SupportKind, row.SupportsHeatW = o.Supports.Count, o.Supports.Kind, o.Supports.HeatW
 	}
 	if o := l.Output; o != nil && o.EquivalentLengthM != nil && in.LengthM != nil {
 		row.FittingsM = *o.EquivalentLengthM - *in.LengthM
@@ -471,6 +488,7 @@ func (r Row) SizeText(sys units.System) string {
 // Totals are the sums over the rows, in SI.
 type Totals struct {
 	ByMaterial []MaterialTotal `json:"by_material"`
+	Items      []ItemTotal     `json:"items"` // fittings by kind and finish, and supports, by material × size × thickness
 	ByJacket   []JacketTotal   `json:"by_jacket"`
 	Grand      Grand           `json:"grand"`
 }
@@ -483,9 +501,23 @@ type MaterialTotal struct {
 	ThicknessMM  float64 `json:"thickness_mm"`
 	Lines        int     `json:"lines"`
 	LengthM      float64 `json:"insulated_length_m"`
-	AreaM2       float64 `json:"area_m2"` // flat surfaces
+	StraightM    float64 `json:"straight_length_m"` // the runs' own length, without fittings
+	AreaM2       float64 `json:"area_m2"`           // flat surfaces
 	JacketAreaM2 float64 `json:"jacket_area_m2"`
 	VolumeM3     float64 `json:"volume_m3"`
+}
+
+// ItemTotal counts one priced item of a material × size × thickness group: a fitting
+// kind with its finish ("insulated", "cover", "bare"), or supports of a kind ("insert",
+// "clamp"). Covers of their own thickness carry it.
+type ItemTotal struct {
+	Material    string   `json:"material"`
+	Size        string   `json:"size"`
+	ThicknessMM float64  `json:"thickness_mm"`
+	Item        string   `json:"item"`   // a fitting kind (catalog.FittingKinds) or "supports"
+	Finish      string   `json:"finish"` // fittings: insulated | cover | bare; supports: insert | clamp
+	CoverMM     *float64 `json:"cover_thickness_mm,omitempty"`
+	Count       int      `json:"count"`
 }
 
 // JacketTotal sums the jacket area of one jacket.
@@ -543,6 +575,7 @@ func SumRows(rows []Row) Totals {
 			m := &t.ByMaterial[i]
 			m.Lines++
 			m.LengthM += val(r.InsulatedM)
+			m.StraightM += val(r.LengthM)
 			m.AreaM2 += val(r.SurfaceAreaM2())
 			m.JacketAreaM2 += val(r.JacketAreaM2)
 			m.VolumeM3 += val(r.VolumeM3)
@@ -561,8 +594,75 @@ func SumRows(rows []Row) Totals {
 	slices.SortStableFunc(t.ByMaterial, func(a, b MaterialTotal) int {
 		return compareGroups(a.Material, sizeKey(a.Size), a.ThicknessMM, b.Material, sizeKey(b.Size), b.ThicknessMM)
 	})
+	t.Items = sumItems(rows)
 	return t
 }
+
+// rowItems lists a row's priced items: each fitting kind counted, with its finish, and
+// its supports.
+func rowItems(r Row) []ItemTotal {
+	var out []ItemTotal
+	for _, k := range catalog.FittingKinds {
+		if n := r.Fittings.Count(k); n > 0 {
+			it := ItemTotal{Item: k, Finish: r.Finish.Of(k), Count: n}
+			if it.Finish == analysis.FinishCover {
+				it.CoverMM = r.CoverMM
+			}
+			out = append(out, it)
+		}
+	}
+	if r.Supports > 0 {
+		out = append(out, ItemTotal{Item: "supports", Finish: r.SupportKind, Count: r.Supports})
+	}
+	return out
+}
+
+// itemOrder sorts items within a group: fittings in catalog order, supports last.
+func itemOrder(item string) int {
+	if i := slices.Index(catalog.FittingKinds, item); i >= 0 {
+		return i
+	}
+	return len(catalog.FittingKinds)
+}
+
+// sumItems totals the fittings and supports by material × size × thickness, item and
+// finish. A bare line (no material) is its own group, named "none (bare)".
+func sumItems(rows []Row) []ItemTotal {
+	var out []ItemTotal
+	index := map[string]int{}
+	for _, r := range rows {
+		mat := r.Material
+		if mat == "" {
+			mat = BareMaterial
+		}
+		size := r.SizeText(units.SI)
+		for _, it := range rowItems(r) {
+			cover := ""
+			if it.CoverMM != nil {
+				cover = thicknessKey(*it.CoverMM)
+			}
+			key := strings.Join([]string{mat, r.Size + "|" + size, thicknessKey(r.ThicknessMM), it.Item, it.Finish, cover}, "\x00")
+			i, ok := index[key]
+			if !ok {
+				i = len(out)
+				index[key] = i
+				it.Material, it.Size, it.ThicknessMM, it.Count = mat, size, r.ThicknessMM, 0
+				out = append(out, it)
+			}
+			out[i].Count += it.Count
+		}
+	}
+	slices.SortStableFunc(out, func(a, b ItemTotal) int {
+		if c := compareGroups(a.Material, sizeKey(a.Size), a.ThicknessMM, b.Material, sizeKey(b.Size), b.ThicknessMM); c != 0 {
+			return c
+		}
+		return itemOrder(a.Item) - itemOrder(b.Item)
+	})
+	return out
+}
+
+// BareMaterial names the group of lines without insulation in the item totals.
+const BareMaterial = "none (bare)"
 
 // SurfaceAreaM2 is the area of the surface under the insulation: π × pipe OD ×
 // insulated length for a pipe, perimeter × insulated length for a rectangular duct, the

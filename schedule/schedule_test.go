@@ -13,6 +13,7 @@ import (
 
 	"github.com/xuri/excelize/v2"
 
+	"lagwright/catalog"
 	"lagwright/units"
 )
 
@@ -103,9 +104,12 @@ func TestUSUnits(t *testing.T) {
 		{"Length (ft)", "100.0"},          // 30.48 m = 100 ft exactly
 		{"Total thickness (in)", "4.000"}, // 2 × 50.8 mm = 2 × 2 in
 		{"Layer build-up", "2 × 2 in"},
-		{"Pipe OD (in)", "2.374"},               // NPS 2: the catalog's metric OD 60.3 mm (ASME B36.10M) = 2.374 in
-		{"Fittings equiv. length (ft)", "15.6"}, // built-in table at NPS 2: 3 elbows × 0.45 m + 2 valves × 1.3 m + 2 flange pairs × 0.4 m = 4.75 m = 15.58 ft
-		{"Insulated length (ft)", "115.6"},      // 100 ft + 15.58 ft
+		{"Pipe OD (in)", "2.374"}, // NPS 2: the catalog's metric OD 60.3 mm (ASME B36.10M) = 2.374 in
+		// Built-in table at NPS 2: only the 3 insulated elbows × 0.45 m = 1.35 m = 4.43 ft
+		// count in the insulated length; the bare valves and covered flange pairs are priced apart.
+		{"Fittings equiv. length (ft)", "4.4"},
+		{"Insulated length (ft)", "104.4"}, // 100 ft + 4.43 ft
+		{"Fittings not insulated", "valves bare; flange pairs removable cover 2 in"},
 		{"Elbows", "3"},
 	} {
 		if got := stm[colOf(t, head, tc.heading)]; got != tc.want {
@@ -230,9 +234,23 @@ func TestTotalsEqualSumOfRows(t *testing.T) {
 				t.Errorf("%s: material group %q has no rows", sys, key)
 				continue
 			}
-			if mr[5].Num != round(s[0], dl) || mr[7].Num != round(s[1], da) || mr[8].Num != round(s[2], dv) {
-				t.Errorf("%s: group %q shows %v %v %v, rows sum to %v", sys, key, mr[5].Num, mr[7].Num, mr[8].Num, s)
+			if mr[6].Num != round(s[0], dl) || mr[8].Num != round(s[1], da) || mr[9].Num != round(s[2], dv) {
+				t.Errorf("%s: group %q shows %v %v %v, rows sum to %v", sys, key, mr[6].Num, mr[8].Num, mr[9].Num, s)
 			}
+		}
+		// Every fitting and support is counted once in the item totals.
+		var counted, items float64
+		for _, r := range sc.Rows {
+			for _, k := range catalog.FittingKinds {
+				counted += float64(r.Fittings.Count(k))
+			}
+			counted += float64(r.Supports)
+		}
+		for _, ir := range v.Items.Rows {
+			items += ir[5].Num
+		}
+		if counted == 0 || items != counted {
+			t.Errorf("%s: item totals count %v, rows count %v fittings and supports", sys, items, counted)
 		}
 		for _, jr := range v.ByJacket.Rows {
 			if jr[3].Num != round(jsum[jr[0].Text], da) {

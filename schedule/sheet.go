@@ -305,7 +305,11 @@ func BuildSheet(p Project, l Line, r Resolver, date time.Time) Sheet {
 	} else {
 		comp.add("Result", "not checked (no energy-code table selected for this line)")
 	}
-	sh.Sections = append(sh.Sections, cond, surf, res, siz, comp)
+	sh.Sections = append(sh.Sections, cond, surf, res)
+	if fs := f.fittingsSection(o); len(fs.Rows) > 0 {
+		sh.Sections = append(sh.Sections, fs)
+	}
+	sh.Sections = append(sh.Sections, siz, comp)
 
 	c := conv(f)
 	sh.Layers = Table{Columns: []Column{textCol("layer", "Layer", 5), textCol("material", "Material", 30),
@@ -394,4 +398,44 @@ func fittingCounts(f analysis.Fittings) string {
 		}
 	}
 	return strings.Join(parts, ", ")
+}
+
+// fittingsSection shows each fitting kind with its finish and heat, the straight run's
+// heat, and the supports with theirs.
+func (f fmtr) fittingsSection(o *analysis.Output) Section {
+	sec := Section{Title: "Fittings and supports"}
+	if o.StraightRunHeatW != nil && (len(o.Fittings) > 0 || o.Supports != nil) {
+		sec.add("Straight run", f.q(units.HeatFlow, *o.StraightRunHeatW))
+	}
+	for _, fo := range o.Fittings {
+		name := catalog.FittingKindName(fo.Kind)
+		label := strconv.Itoa(fo.Count) + " × " + name + ", " + conv(f).finishName(fo.Finish, nil)
+		v := f.q(units.LongLength, fo.EquivLengthM) + " equivalent length each"
+		if fo.BareAreaM2 != nil {
+			v += ", bare surface " + f.q(units.Area, *fo.BareAreaM2) + " each"
+		}
+		if fo.HeatW != nil {
+			v += "; heat " + f.q(units.HeatFlow, *fo.HeatW)
+		}
+		sec.add(strings.ToUpper(label[:1])+label[1:], v)
+	}
+	if w, ok := o.FittingsHeatW["fittings_equiv_length"]; ok {
+		sec.add("Insulated fittings (equivalent length given)", f.q(units.HeatFlow, w))
+	}
+	if sp := o.Supports; sp != nil {
+		v := strconv.Itoa(sp.Count) + " × " + supportKindText(sp.Kind, sp.Count) + " at " + f.q(units.LongLength, sp.SpacingM) + " spacing"
+		if sp.HeatW != nil {
+			v += "; heat " + f.q(units.HeatFlow, *sp.HeatW)
+			if sp.HeatEachW != nil {
+				v += " (" + f.q(units.HeatFlow, *sp.HeatEachW) + " each)"
+			}
+		} else {
+			v += "; counted for the bid (heat not modelled above the ambient)"
+		}
+		sec.add("Supports", v)
+		if sp.ClampCondensationMarginK != nil && sp.ClampSurfaceTempC != nil {
+			sec.add("Bare clamp: surface and margin to the dew point", f.q(units.Temp, *sp.ClampSurfaceTempC)+", "+f.q(units.TempDiff, *sp.ClampCondensationMarginK))
+		}
+	}
+	return sec
 }

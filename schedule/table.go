@@ -6,6 +6,7 @@ import (
 	"strconv"
 	"strings"
 
+	"lagwright/analysis"
 	"lagwright/catalog"
 	"lagwright/units"
 )
@@ -104,6 +105,7 @@ type View struct {
 	Conditions [][2]string // label, value
 	Rows       Table
 	ByMaterial Table
+	Items      Table // fittings by kind and finish, and supports, by material × size × thickness
 	ByJacket   Table
 	Grand      Table
 }
@@ -218,8 +220,13 @@ func RowColumns(sys units.System) []Column {
 		count("elbows", "Elbows", 6),
 		count("tees", "Tees", 5),
 		count("valves", "Valves", 6),
-		count("flanges", "Flanges", 7),
+		count("flange_pairs", "Flange pairs", 7),
 		count("caps", "Caps", 5),
+		count("strainers", "Strainers", 6),
+		count("reducers", "Reducers", 6),
+		textCol("fitting_finish", "Fittings not insulated", 16),
+		count("supports", "Supports", 6),
+		textCol("support_kind", "Support kind", 10),
 		c.col("fittings_length", "Fittings equiv. length", units.LongLength, 9),
 		c.col("insulated_length", "Insulated length", units.LongLength, 9),
 		c.col("area", "Surface area", units.Area, 8),
@@ -248,6 +255,10 @@ func (c conv) cells(r Row) []Cell {
 	if r.Geometry == "pipe" {
 		odCell = c.opt(units.Length, r.PipeODmm)
 	}
+	supports := blank()
+	if r.Supports > 0 {
+		supports = intCell(r.Supports)
+	}
 	fitLen := blank()
 	if r.LengthM != nil {
 		fitLen = c.num(units.LongLength, r.FittingsM)
@@ -271,7 +282,8 @@ func (c conv) cells(r Row) []Cell {
 		text(r.SizeText(c.sys)), odCell,
 		c.opt(units.LongLength, r.LengthM),
 		intCell(r.Fittings.Elbows), intCell(r.Fittings.Tees), intCell(r.Fittings.Valves),
-		intCell(r.Fittings.FlangePairs), intCell(r.Fittings.Caps),
+		intCell(r.Fittings.FlangePairs), intCell(r.Fittings.Caps), intCell(r.Fittings.Strainers), intCell(r.Fittings.Reducers),
+		text(c.finishText(r)), supports, text(supportKindText(r.SupportKind, r.Supports)),
 		fitLen,
 		c.opt(units.LongLength, r.InsulatedM),
 		c.opt(units.Area, r.SurfaceAreaM2()),
@@ -327,6 +339,7 @@ func NewView(s Schedule) View {
 		v.Rows.Rows[i] = c.cells(r)
 	}
 	v.ByMaterial, v.ByJacket, v.Grand = c.totals(s.Rows, v.Rows)
+	v.Items = c.items(s.Rows, v.Rows)
 	return v
 }
 
@@ -334,6 +347,7 @@ func NewView(s Schedule) View {
 func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 	ix := func(k string) int { return ColumnIndex(k) }
 	iLen, iArea, iJA, iVol, iHF, iTh := ix("insulated_length"), ix("area"), ix("jacket_area"), ix("volume"), ix("heat_flow"), ix("thickness")
+	iRun := ix("length")
 	num := func(cells []Cell, i int) float64 {
 		if cells[i].Blank {
 			return 0
@@ -349,11 +363,12 @@ func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 	linesCol := count("lines", "Lines", 6)
 
 	mat := Table{Columns: []Column{textCol("material", "Material", 30), textCol("spec", "Specification", 20),
-		textCol("size", "Size", 14), c.col("thickness", "Total thickness", units.Length, 10), linesCol, lenCol, areaCol, jaCol, volCol}}
+		textCol("size", "Size", 14), c.col("thickness", "Total thickness", units.Length, 10), linesCol,
+		c.col("straight_length", "Straight length", units.LongLength, 10), lenCol, areaCol, jaCol, volCol}}
 	jac := Table{Columns: []Column{textCol("jacket", "Jacket", 34), textCol("vapour_retarder", "Vapour retarder", 10), linesCol, jaCol}}
 	grand := Table{Columns: []Column{textCol("total", "Total", 20), linesCol, lenCol, areaCol, jaCol, volCol, lossCol, gainCol}}
 
-	type acc struct{ lines, length, area, ja, vol float64 }
+	type acc struct{ lines, length, area, ja, vol, run float64 }
 	mIndex := map[string]int{}
 	var mAcc []acc
 	jIndex := map[string]int{}
@@ -363,7 +378,7 @@ func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 	var mKeys []sizeOrder
 	for i, r := range rows {
 		cells := shown.Rows[i]
-		a := acc{1, num(cells, iLen), num(cells, iArea), num(cells, iJA), num(cells, iVol)}
+		a := acc{1, num(cells, iLen), num(cells, iArea), num(cells, iJA), num(cells, iVol), num(cells, iRun)}
 		g.lines++
 		g.length += a.length
 		g.area += a.area
@@ -388,6 +403,7 @@ func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 			}
 			m := &mAcc[k]
 			m.lines++
+			m.run += a.run
 			m.length += a.length
 			m.area += a.area
 			m.ja += a.ja
@@ -408,7 +424,7 @@ func (c conv) totals(rows []Row, shown Table) (Table, Table, Table) {
 	dl, da, dv := c.decimals(units.LongLength), c.decimals(units.Area), c.decimals(units.Volume)
 	for k := range mat.Rows {
 		m := mAcc[k]
-		mat.Rows[k] = append(mat.Rows[k], Cell{IsNum: true, Num: m.lines},
+		mat.Rows[k] = append(mat.Rows[k], Cell{IsNum: true, Num: m.lines}, Cell{IsNum: true, Num: round(m.run, dl)},
 			Cell{IsNum: true, Num: round(m.length, dl)}, Cell{IsNum: true, Num: round(m.area, da)},
 			Cell{IsNum: true, Num: round(m.ja, da)}, Cell{IsNum: true, Num: round(m.vol, dv)})
 	}
@@ -497,7 +513,7 @@ func (h Header) fittingAllowancesText(ll func(float64) string) string {
 			own = append(own, catalog.FittingKindName(k)+" "+ll(*v))
 		}
 	}
-	s := "by size, " + catalog.FittingLengthBasis
+	s := catalog.FittingLengthBasis
 	if len(own) > 0 {
 		s += "; the project's allowance for every size: " + strings.Join(own, ", ")
 	}
@@ -505,4 +521,100 @@ func (h Header) fittingAllowancesText(ll func(float64) string) string {
 		s += "; the project's table by size: " + strconv.Itoa(n) + " rows"
 	}
 	return s
+}
+
+// finishText lists the fitting kinds that are not insulated as the line: "valves
+// bare; flange pairs removable cover 1 in".
+func (c conv) finishText(r Row) string {
+	var parts []string
+	for _, k := range catalog.FittingKinds {
+		if r.Fittings.Count(k) == 0 {
+			continue
+		}
+		if f := r.Finish.Of(k); f != analysis.FinishInsulated {
+			parts = append(parts, catalog.FittingKindName(k)+"s "+c.finishName(f, r.CoverMM))
+		}
+	}
+	return strings.Join(parts, "; ")
+}
+
+// finishName writes a fitting finish in words, with a cover's own thickness.
+func (c conv) finishName(f string, coverMM *float64) string {
+	switch f {
+	case analysis.FinishCover:
+		if coverMM != nil {
+			return "removable cover " + units.FormatUnit(units.Length, c.sys, *coverMM)
+		}
+		return "removable cover"
+	case analysis.FinishBare:
+		return "bare"
+	}
+	return f
+}
+
+// supportKindText writes a support kind for the bid.
+func supportKindText(kind string, n int) string {
+	switch {
+	case n == 0:
+		return ""
+	case kind == analysis.SupportInsert:
+		return "insert and shield"
+	case kind == analysis.SupportClamp:
+		return "clamp"
+	}
+	return kind
+}
+
+// items is the table of fittings by kind and finish and supports by kind, per
+// material × size × thickness group (the groups of the material totals).
+func (c conv) items(rows []Row, shown Table) Table {
+	iTh := ColumnIndex("thickness")
+	t := Table{Columns: []Column{textCol("material", "Material", 30), textCol("size", "Size", 14),
+		c.col("thickness", "Total thickness", units.Length, 10), textCol("item", "Item", 14), textCol("finish", "Finish", 24),
+		count("count", "Count", 8)}}
+	type key struct{ mat, size, th, item, finish string }
+	index := map[key]int{}
+	var order []sizeOrder
+	var items []string
+	for i, r := range rows {
+		mat := r.Material
+		if mat == "" {
+			mat = BareMaterial
+		}
+		th := shown.Rows[i][iTh]
+		sizeText := r.SizeText(c.sys)
+		for _, it := range rowItems(r) {
+			name, finish := catalog.FittingKindName(it.Item)+"s", c.finishName(it.Finish, it.CoverMM)
+			if it.Item == "supports" {
+				name, finish = "supports", supportKindText(it.Finish, it.Count)
+			}
+			k := key{mat, sizeText, th.String(c.decimals(units.Length)), name, finish}
+			j, ok := index[k]
+			if !ok {
+				j = len(t.Rows)
+				index[k] = j
+				t.Rows = append(t.Rows, []Cell{text(mat), text(sizeText), th, text(name), text(finish), intCell(0)})
+				order = append(order, sizeKey(sizeText))
+				items = append(items, it.Item)
+			}
+			t.Rows[j][5].Num += float64(it.Count)
+		}
+	}
+	idx := make([]int, len(t.Rows))
+	for i := range idx {
+		idx[i] = i
+	}
+	slices.SortStableFunc(idx, func(x, y int) int {
+		a, b := t.Rows[x], t.Rows[y]
+		if cmp := compareGroups(a[0].Text, order[x], a[2].Num, b[0].Text, order[y], b[2].Num); cmp != 0 {
+			return cmp
+		}
+		return itemOrder(items[x]) - itemOrder(items[y])
+	})
+	sorted := make([][]Cell, len(idx))
+	for i, j := range idx {
+		sorted[i] = t.Rows[j]
+	}
+	t.Rows = sorted
+	return t
 }

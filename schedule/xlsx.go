@@ -177,6 +177,9 @@ func xlsxTotals(f *excelize.File, st *xlsxStyles, v View) error {
 	if err := section("Totals by material, size and thickness", v.ByMaterial); err != nil {
 		return err
 	}
+	if err := section("Fittings and supports by material, size and thickness", v.Items); err != nil {
+		return err
+	}
 	if err := section("Totals by jacket", v.ByJacket); err != nil {
 		return err
 	}
