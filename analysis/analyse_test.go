@@ -47,8 +47,10 @@ func near(t *testing.T, name string, got, want, relTol float64) {
 func TestAcceptanceHotPipe(t *testing.T) {
 	out := mustRun(t, `{"geometry":"pipe","pipe_od_mm":114.3,"operating_temp_c":180,"ambient_temp_c":20,
 		"layers":[{"k_w_mk":0.045,"thickness_mm":50}],"surface_emittance":0.1}`)
-	near(t, "heat_flow_w_per_m", *out.HeatFlowWPerM, 63, 0.05)
-	near(t, "surface_temp_c", out.SurfaceTempC, 40, 0.08)
+	// The estimate is stated to two figures, so the answer must round to it: 63 ± 0.5 W/m
+	// and 40 ± 0.5 °C.
+	near(t, "heat_flow_w_per_m", *out.HeatFlowWPerM, 63, 0.5/63)
+	near(t, "surface_temp_c", out.SurfaceTempC, 40, 0.5/40)
 	if out.MethodVersion == "" || len(out.Assumptions) == 0 || out.Warnings == nil {
 		t.Errorf("method_version, assumptions and warnings must always be present: %+v", out)
 	}
@@ -128,7 +130,7 @@ func TestAcceptanceChilledWater(t *testing.T) {
 	if out.EnergyCode == nil || !out.EnergyCode.Required || out.EnergyCode.TableThicknessMM == nil {
 		t.Fatalf("energy_code = %+v", out.EnergyCode)
 	}
-	// ASHRAE 90.1-2016 Table 6.8.3-2 (METHODS.md): cooling 40–60 °F, NPS 1½–<4 → 1 in.
+	// ASHRAE 90.1-2016 Table 6.8.3-2 (docs/references.md): cooling 40–60 °F, NPS 1½–<4 → 1 in.
 	near(t, "table thickness", *out.EnergyCode.TableThicknessMM, 25.4, 1e-6)
 	if out.Sizing.Governing == nil || out.Sizing.GoverningThicknessMM == nil {
 		t.Fatalf("no governing criterion: %+v", out.Sizing)

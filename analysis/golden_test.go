@@ -14,9 +14,14 @@ import (
 var update = flag.Bool("update", false, "rewrite the golden answers in testdata/golden")
 
 // TestGolden guards the whole answer of a set of representative lines against
-// unintended change. The golden files were produced by this code and checked by hand
-// against the reference tests of calc; rewrite them with -update only when a method
-// change is intended (and then bump calc.MethodVersion).
+// unintended change. The golden files are regression guards, not references: they were
+// produced by this code. What they cover is checked against outside sources elsewhere —
+// the heat balance against the ht library's two-layer pipe and Incropera's correlation
+// examples (calc/solve_test.go, calc/convection_test.go), steam against IAPWS-IF97
+// (calc/steam_test.go), dew points against ASHRAE and PsychroLib (calc/psychro_test.go),
+// freeze times against the ASHRAE ch. 23 example (calc/freeze_test.go), code minimums
+// against ASHRAE 90.1 (calc/energycode_test.go); see docs/references.md. Rewrite them with
+// -update only when a method change is intended (and then bump calc.MethodVersion).
 func TestGolden(t *testing.T) {
 	inputs, _ := filepath.Glob("testdata/golden/*.input.json")
 	if len(inputs) == 0 {

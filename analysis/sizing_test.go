@@ -134,7 +134,7 @@ func TestConditionSetsAreIndependent(t *testing.T) {
 	}
 }
 
-// The energy-code correction of METHODS.md, through the whole path: NPS 2, 141–200 °F
+// The energy-code correction of docs/references.md, through the whole path: NPS 2, 141–200 °F
 // row (2 in at 1½–<4), a material with k at the 125 °F rating point outside 0.25–0.29.
 func TestEnergyCodeCorrection(t *testing.T) {
 	// k_points chosen so that k(125 °F = 51.667 °C) is the value wanted (constant k).
@@ -144,9 +144,9 @@ func TestEnergyCodeCorrection(t *testing.T) {
 		wantIn float64
 		source string
 	}{
-		{"K 0.32 above the range", 0.32, 2.343, "METHODS.md worked value, computed from the 90.1 footnote formula"},
-		{"K 0.22 below the range", 0.22, 1.324, "METHODS.md worked value, computed from the 90.1 footnote formula"},
-		{"K 0.26 inside the range", 0.26, 2.0, "ASHRAE 90.1-2016 Table 6.8.3-1 via METHODS.md: unchanged"},
+		{"K 0.32 above the range", 0.32, 2.343, "docs/references.md worked value, computed from the 90.1 footnote formula"},
+		{"K 0.22 below the range", 0.22, 1.324, "docs/references.md worked value, computed from the 90.1 footnote formula"},
+		{"K 0.26 inside the range", 0.26, 2.0, "ASHRAE 90.1-2016 Table 6.8.3-1 via docs/references.md: unchanged"},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {

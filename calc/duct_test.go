@@ -7,7 +7,7 @@ import (
 
 // A square duct with a fixed surface coefficient: four identical faces whose mean widths
 // sum to the mean perimeter, so the total equals the ISO 12241 mean-perimeter result
-// R' = 2d/[λ(P_i + P_e)], P_e = P_i + 8d (METHODS.md [memory]; computed here).
+// R' = 2d/[λ(P_i + P_e)], P_e = P_i + 8d (docs/references.md, as recalled; computed here).
 func TestDuctSquareMeanPerimeter(t *testing.T) {
 	const side, h, tf, ta = 0.5, 10.0, 60.0, 20.0
 	layers := []Layer{{Thickness: 0.05, K: constK(0.04)}, {Thickness: 0.025, K: constK(0.03)}}
@@ -30,7 +30,7 @@ func TestDuctSquareMeanPerimeter(t *testing.T) {
 		t.Errorf("square duct: %g W/m over %g m²/m, want %g over %g", r.HeatFlowPerM, r.OuterAreaPerM, want, pi)
 	}
 	// Against the inner perimeter alone the mean-perimeter rule differs by 11–25 % for
-	// common sizes (METHODS.md [computed]); here it must differ by more than 10 %.
+	// common sizes (docs/references.md, computed); here it must differ by more than 10 %.
 	inner := (tf - ta) / (0.05/(0.04*4*side) + 0.025/(0.03*4*side) + 1/(h*pi))
 	if relDiff(r.HeatFlowPerM, inner) < 0.1 {
 		t.Errorf("mean-perimeter %g W/m hardly differs from inner-perimeter %g", r.HeatFlowPerM, inner)
@@ -47,7 +47,7 @@ func TestDuctSquareMeanPerimeter(t *testing.T) {
 
 // Faces of a duct with the correlations: the total is the sum (sides twice), and the worst
 // face is reported. A cold duct's top (cold face looking up, the weak 0.27 Ra^¼ side) runs
-// coldest, by a kelvin or two on a foil-faced duct (METHODS.md [computed]); a hot duct's
+// coldest, by a kelvin or two on a foil-faced duct (docs/references.md, computed); a hot duct's
 // bottom (hot face looking down) runs hottest.
 func TestDuctFaces(t *testing.T) {
 	sys := System{Shape: Duct, DuctWidth: 0.8, DuctHeight: 0.4, Emittance: 0.05,

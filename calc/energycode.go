@@ -14,7 +14,7 @@ import (
 // r is the actual outside radius of the pipe, t the table thickness (the same length unit
 // as r; the result is in that unit), K the material's conductivity at the table's mean
 // rating temperature and k the reference conductivity the table names (for 90.1 the upper
-// end of the row's range [memory]). Any consistent conductivity unit works.
+// end of the row's range (from memory)). Any consistent conductivity unit works.
 func CodeCorrectedThickness(pipeRadiusM, tableThicknessM, kMaterial, kRef float64) (float64, error) {
 	for _, v := range []float64{pipeRadiusM, tableThicknessM, kMaterial, kRef} {
 		if math.IsNaN(v) || math.IsInf(v, 0) {

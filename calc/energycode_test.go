@@ -11,7 +11,7 @@ func TestCodeCorrectedThickness(t *testing.T) {
 		r, t, K, k, want float64
 		src              string
 	}{
-		// METHODS.md worked values [computed from the ASHRAE 90.1 footnote formula]: NPS 2
+		// docs/references.md worked values [computed from the ASHRAE 90.1 footnote formula]: NPS 2
 		// (r = 1.1875 in), 141–200 °F row, t = 2 in.
 		{1.1875 * in, 2 * in, 0.32, 0.29, 2.343 * in, "90.1 footnote, K 0.32 k 0.29"},
 		{1.1875 * in, 2 * in, 0.22, 0.29, 1.324 * in, "90.1 footnote, K 0.22 k 0.29"},

@@ -6,7 +6,7 @@ import (
 	"testing"
 )
 
-// ashraeFreezeExample is ASHRAE Handbook—Fundamentals ch. 23 freeze example (METHODS.md):
+// ashraeFreezeExample is ASHRAE Handbook—Fundamentals ch. 23 freeze example (docs/references.md):
 // 2-in pipe, D1 2.067 in (inside), D2 2.375 in, D3 5.375 in (1.5 in insulation),
 // k 0.30 Btu·in/h·ft²·°F, water 42 °F, with the handbook's simplifications: no wall
 // capacity, no outer film, R = ln(D3/D2)/(2πk), ρ 62.4 lb/ft³ and cp 1.0 Btu/lb·°F.
@@ -32,10 +32,10 @@ func TestFreezeTimesASHRAEExample(t *testing.T) {
 	cases := []struct {
 		airF, computed, handbook float64
 	}{
-		// ASHRAE Fundamentals ch. 23 example: 1.4 h [read]; 1.378 h computed from its formula
-		// with the dimensions above (METHODS.md).
+		// ASHRAE Fundamentals ch. 23 example: 1.4 h; 1.378 h computed from its formula
+		// with the dimensions above (docs/references.md).
 		{-18, 1.378, 1.4},
-		// Same example, air 20 °F: 4.6 h [read]; 4.583 h computed.
+		// Same example, air 20 °F: 4.6 h; 4.583 h computed.
 		{20, 4.583, 4.6},
 	}
 	for _, c := range cases {

@@ -61,7 +61,7 @@ func TestDewPointPsychroLib(t *testing.T) {
 		db, rh, want float64
 		src          string
 	}{
-		{25, 80, 21.3094, "PsychroLib documented example [read]"},
+		{25, 80, 21.3094, "PsychroLib documented example"},
 		{24, 50, 12.95, "computed with PsychroLib"},
 		{20, 50, 9.27, "computed with PsychroLib"},
 		{30, 70, 23.93, "computed with PsychroLib"},

@@ -72,7 +72,7 @@ func TestIF97Region2Enthalpy(t *testing.T) {
 }
 
 func TestSteamTables(t *testing.T) {
-	// Standard saturated-steam tables [memory]: 101.325 kPa → 100.0 °C, h_fg 2256.4 kJ/kg;
+	// Standard saturated-steam tables (from memory): 101.325 kPa → 100.0 °C, h_fg 2256.4 kJ/kg;
 	// 1.0 MPa abs → 179.9 °C, h_fg 2014.6 kJ/kg. Tolerance 0.1 %.
 	for _, c := range []struct{ pPa, wantC, wantHfg float64 }{
 		{101325, 100.0, 2256.4e3},

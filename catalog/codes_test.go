@@ -8,7 +8,7 @@ import (
 
 func fToCTest(f float64) float64 { return (f - 32) * 5 / 9 }
 
-// ASHRAE 90.1-2016 Tables 6.8.3-1/-2 as reproduced in METHODS.md (secondary source — verify
+// ASHRAE 90.1-2016 Tables 6.8.3-1/-2 as reproduced in docs/references.md (secondary source — verify
 // against the adopted code). Columns: <1, 1–<1½, 1½–<4, 4–<8, ≥8 in nominal size.
 func TestASHRAE9012016Lookup(t *testing.T) {
 	tab, ok := CodeTableByID("ashrae-90.1-2016")
@@ -75,7 +75,7 @@ func TestASHRAE9012016Lookup(t *testing.T) {
 	}
 }
 
-// Every row and its values, as reproduced in METHODS.md (secondary source — verify).
+// Every row and its values, as reproduced in docs/references.md (secondary source — verify).
 func TestASHRAE9012016Rows(t *testing.T) {
 	tab, _ := CodeTableByID("ashrae-90.1-2016")
 	want := []struct {

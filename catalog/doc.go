@@ -3,7 +3,7 @@
 // insulation material classes with their apparent conductivity against mean temperature,
 // thickness series, and energy-code minimum pipe insulation tables.
 //
-// Every entry names its source in a Source field, with the labels of ../shared/METHODS.md:
+// Every entry names its source in a Source field, as a reader cites it (docs/references.md):
 // a value read in a published source cites that source; "common practice" marks trade
 // conventions; "from memory — verify" marks values recalled but not checked against the
 // named standard. Values from memory must be verified before they are relied on; every one

@@ -58,7 +58,7 @@ var materials = []Material{
 		},
 		MinC: FToC(0), MaxC: FToC(850), // 0 to 850 °F
 		ThicknessesMM: seriesPipeSection, MaxLayerMM: in2mm(6),
-		Source: "service limits 0–850 °F: ASTM C547 (METHODS.md [read]); maximum apparent k: ASTM C547 Type I, " +
+		Source: "service limits 0–850 °F: ASTM C547; maximum apparent k: ASTM C547 Type I, " +
 			labelMemory + "; " + srcSeries,
 	},
 	{
@@ -75,7 +75,7 @@ var materials = []Material{
 		},
 		MinC: FToC(0), MaxC: FToC(1200), // 0 to 1200 °F
 		ThicknessesMM: seriesPipeSection, MaxLayerMM: in2mm(6),
-		Source: "service limits 0–1200 °F: ASTM C547 Types II/III (METHODS.md [read]); maximum apparent k: " +
+		Source: "service limits 0–1200 °F: ASTM C547 Types II/III; maximum apparent k: " +
 			"ASTM C547 Type II, " + labelMemory + "; " + srcSeries,
 	},
 	{
@@ -94,7 +94,7 @@ var materials = []Material{
 		Slug: "calcium_silicate_c533_t1", Name: "Calcium silicate, Type I",
 		Category: "calcium silicate", Spec: "ASTM C533 Type I", Form: "pipe section and block",
 		KPoints: []KPoint{
-			ip(100, 0.41), // 100 °F, 0.41 Btu·in/(h·ft²·°F) — ASTM C533 Type I [read]
+			ip(100, 0.41), // 100 °F, 0.41 Btu·in/(h·ft²·°F) — ASTM C533 Type I
 			ip(200, 0.44), // 200 °F, 0.44 — from memory
 			ip(400, 0.50), // 400 °F, 0.50 — from memory
 			ip(600, 0.57), // 600 °F, 0.57 — from memory
@@ -103,7 +103,7 @@ var materials = []Material{
 		MinC: FToC(80), MaxC: FToC(1200), // 80 to 1200 °F
 		ThicknessesMM: seriesRigidPipe, MaxLayerMM: in2mm(4),
 		Source: "ASTM C533 Type I: service limits 80–1200 °F and maximum apparent k 0.41 Btu·in/(h·ft²·°F) at " +
-			"100 °F (METHODS.md [read]); k at 200–800 °F " + labelMemory + "; " + srcSeries,
+			"100 °F; k at 200–800 °F " + labelMemory + "; " + srcSeries,
 	},
 	{
 		Slug: "cellular_glass_c552_t1", Name: "Cellular glass, Type I (block)",
@@ -116,7 +116,7 @@ var materials = []Material{
 		},
 		MinC: FToC(-450), MaxC: FToC(800), // −450 to 800 °F
 		ThicknessesMM: seriesRigidPipe, MaxLayerMM: in2mm(4),
-		Source: "ASTM C552 Type I, maximum apparent k and service limits −450 to 800 °F (METHODS.md [read]); " +
+		Source: "ASTM C552 Type I, maximum apparent k and service limits −450 to 800 °F; " +
 			"type names (block / pipe and tubing) " + labelMemory + "; " + srcSeries,
 	},
 	{
@@ -130,7 +130,7 @@ var materials = []Material{
 		},
 		MinC: FToC(-450), MaxC: FToC(800), // −450 to 800 °F
 		ThicknessesMM: seriesRigidPipe, MaxLayerMM: in2mm(4),
-		Source: "ASTM C552 Type II, maximum apparent k and service limits −450 to 800 °F (METHODS.md [read]); " +
+		Source: "ASTM C552 Type II, maximum apparent k and service limits −450 to 800 °F; " +
 			"type names (block / pipe and tubing) " + labelMemory + "; " + srcSeries,
 	},
 	{
@@ -142,7 +142,7 @@ var materials = []Material{
 		},
 		MinC: FToC(-297), MaxC: FToC(220), // −297 to 220 °F
 		ThicknessesMM: seriesElastomeric, MaxLayerMM: in2mm(2),
-		Source: "ASTM C534 Grade 1, maximum apparent k and service limits −297 to 220 °F (METHODS.md [read]); " +
+		Source: "ASTM C534 Grade 1, maximum apparent k and service limits −297 to 220 °F; " +
 			"Type I = tubular " + labelMemory + "; " + srcSeries,
 	},
 	{
@@ -155,7 +155,7 @@ var materials = []Material{
 		},
 		MinC: FToC(-297), MaxC: FToC(350), // −297 to 350 °F
 		ThicknessesMM: seriesElastomeric, MaxLayerMM: in2mm(1),
-		Source: "ASTM C534 Grade 2, maximum apparent k and upper service limit 350 °F (METHODS.md [read]); " +
+		Source: "ASTM C534 Grade 2, maximum apparent k and upper service limit 350 °F; " +
 			"lower limit −297 °F taken as Grade 1's, " + labelMemory + "; " + srcSeries,
 	},
 	{
@@ -169,8 +169,8 @@ var materials = []Material{
 		MinC: FToC(-297), MaxC: FToC(300), // −297 to 300 °F
 		ThicknessesMM: seriesFoam, MaxLayerMM: in2mm(4),
 		Source: "ASTM C591, maximum apparent k (upper end of the range tabulated across types and grades) and " +
-			"service limits −297 to 300 °F (METHODS.md [read]); ASHRAE Fundamentals 2013 gives 0.0235 W/(m·K) " +
-			"aged at room temperature as a design value [read]; " + srcSeries,
+			"service limits −297 to 300 °F; ASHRAE Fundamentals 2013 gives 0.0235 W/(m·K) " +
+			"aged at room temperature as a design value (ch. 26); " + srcSeries,
 	},
 	{
 		Slug: "phenolic_c1126", Name: "Phenolic foam, Type III",
@@ -182,7 +182,7 @@ var materials = []Material{
 		},
 		MinC: FToC(-290), MaxC: FToC(257), // −290 to 257 °F
 		ThicknessesMM: seriesFoam, MaxLayerMM: in2mm(4),
-		Source: "ASTM C1126 Type III: service limits −290 to 257 °F (METHODS.md [read]); maximum apparent k " +
+		Source: "ASTM C1126 Type III: service limits −290 to 257 °F; maximum apparent k " +
 			labelMemory + "; " + srcSeries,
 	},
 	{
@@ -197,7 +197,7 @@ var materials = []Material{
 		ThicknessesMM: seriesDuctWrap, MaxLayerMM: in2mm(3),
 		Compressible: true, CompressionPct: 25,
 		Source: "ASTM C553 / C1290: maximum apparent k at nominal (uncompressed) density and service limits of " +
-			"faced duct wrap " + labelMemory + " (C553 types run to 450–1200 °F, METHODS.md [read]); " +
+			"faced duct wrap " + labelMemory + " (C553 types run to 450–1200 °F, e.g. Incropera, Fundamentals of Heat and Mass Transfer, 6th ed., Table A.11); " +
 			"25 % installed compression and nominal thicknesses: " + labelCommon,
 	},
 	{
@@ -225,7 +225,7 @@ var materials = []Material{
 		},
 		MinC: FToC(80), MaxC: FToC(1200), // 80 to 1200 °F
 		ThicknessesMM: seriesRigidPipe, MaxLayerMM: in2mm(4),
-		Source: "ASTM C610: service limits 80–1200 °F (METHODS.md [read]); maximum apparent k " + labelMemory +
+		Source: "ASTM C610: service limits 80–1200 °F; maximum apparent k " + labelMemory +
 			"; " + srcSeries,
 	},
 }

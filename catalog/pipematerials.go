@@ -31,7 +31,7 @@ var pipeMaterials = []PipeMaterial{
 	{
 		Slug: "carbon_steel", Name: "Carbon steel", WallK: 50, BareEmittance: 0.79,
 		Source: "k: " + labelCommon + "; emittance 0.79: oxidised steel, mid-range of 0.74–0.82 in published " +
-			"emissivity tables (METHODS.md [read]); CUI band −4 to 175 °C (25–350 °F): NACE SP0198, " + labelMemory,
+			"emissivity tables (e.g. Incropera, Fundamentals of Heat and Mass Transfer, 6th ed., Table A.11); CUI band −4 to 175 °C (25–350 °F): NACE SP0198, " + labelMemory,
 		Cautions: []string{
 			"Corrosion under insulation (CUI) is most likely at operating temperatures between about −4 °C and " +
 				"175 °C, worst in cyclic service and where the jacket lets water in (NACE SP0198 range, " +
@@ -43,7 +43,7 @@ var pipeMaterials = []PipeMaterial{
 	{
 		Slug: "stainless_steel", Name: "Stainless steel (austenitic)", WallK: 16, BareEmittance: 0.30,
 		Source: "k: " + labelCommon + "; emittance 0.30 dull stainless, " + labelMemory +
-			" (published tables give 0.07–0.28, METHODS.md [read]); SCC band 50–150 °C " + labelMemory,
+			" (published tables give 0.07–0.28, e.g. Incropera, Fundamentals of Heat and Mass Transfer, 6th ed., Table A.11); SCC band 50–150 °C " + labelMemory,
 		Cautions: []string{
 			"Use insulation tested for leachable chlorides (ASTM C795) on austenitic stainless steel: " +
 				"chlorides leached from wet insulation cause external stress-corrosion cracking, most likely " +
@@ -64,13 +64,13 @@ var pipeMaterials = []PipeMaterial{
 	{
 		Slug: "galvanised_steel", Name: "Galvanised steel", WallK: 50, BareEmittance: 0.27,
 		Source: "k: " + labelCommon + "; emittance 0.27: dull galvanised steel, 0.26–0.28 in published " +
-			"emissivity tables (METHODS.md [read])",
+			"emissivity tables (e.g. Incropera, Fundamentals of Heat and Mass Transfer, 6th ed., Table A.11)",
 		Density: 7850, SpecificHeat: 480, // as carbon steel, common practice
 	},
 	{
 		Slug: "pvc", Name: "PVC", WallK: 0.19, BareEmittance: 0.92,
 		Source: "k: " + labelCommon + "; emittance 0.92: PVC, 0.90–0.94 in published emissivity tables " +
-			"(METHODS.md [read]); service limit about 60 °C: " + labelCommon,
+			"(e.g. Incropera, Fundamentals of Heat and Mass Transfer, 6th ed., Table A.11); service limit about 60 °C: " + labelCommon,
 		Cautions: []string{
 			"PVC pipe has a service temperature limit of about 60 °C (" + labelCommon + "); check the pipe maker's rating.",
 		},

@@ -60,8 +60,8 @@ const (
 type steelRow struct {
 	nps   float64
 	dn    int
-	od    float64 // ASME B36.10M [read]
-	sch40 float64 // ASME B36.10M [read]
+	od    float64 // ASME B36.10M
+	sch40 float64 // ASME B36.10M
 	sch80 float64 // from memory — verify
 }
 
@@ -93,7 +93,7 @@ var steelRows = []steelRow{
 type copperRow struct {
 	nominal float64
 	k       float64 // ASTM B88 Type K, from memory — verify
-	l       float64 // ASTM B88 Type L [read]
+	l       float64 // ASTM B88 Type L
 	m       float64 // ASTM B88 Type M, from memory — verify
 }
 

@@ -9,7 +9,7 @@ import (
 
 func near(a, b, tol float64) bool { return math.Abs(a-b) <= tol }
 
-// Steel OD and Schedule 40 wall: ASME B36.10M, as read (METHODS.md "Pipe and tube dimensions").
+// Steel OD and Schedule 40 wall: ASME B36.10M, as read (docs/references.md "Pipe and tube dimensions").
 func TestSteelODAndSch40_ASMEB3610M(t *testing.T) {
 	cases := []struct {
 		desig string
@@ -132,7 +132,7 @@ func TestDNToNPS_ISO6708(t *testing.T) {
 
 func itoa(n int) string { return FormatNominal(float64(n)) }
 
-// Copper tube, ASTM B88: OD = nominal + 1/8 in for every size [read]; Type L walls [read];
+// Copper tube, ASTM B88: OD = nominal + 1/8 in for every size; Type L walls;
 // Types K and M from memory — verify.
 func TestCopperTube_ASTMB88(t *testing.T) {
 	cases := []struct {

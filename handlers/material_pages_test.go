@@ -50,7 +50,7 @@ func TestMaterialListPage(t *testing.T) {
 		}
 	}
 	for _, want := range []string{
-		// ASTM C534 Grade 1: −297 to 220 °F is −183 to 104 °C; 0.28 Btu·in/h·ft²·°F at 75 °F (METHODS.md [read])
+		// ASTM C534 Grade 1: −297 to 220 °F is −183 to 104 °C; 0.28 Btu·in/h·ft²·°F at 75 °F (docs/references.md)
 		"−183 to 104 °C", "(−297 to 220 °F)", "0.0404 W/m·K", "(0.280 Btu·in/h·ft²·°F)",
 		`class="lib-mark builtin"`, `aria-current="page">Materials`, `id="pipe-materials"`, "Carbon steel",
 	} {
@@ -127,7 +127,7 @@ func TestMaterialPageChart(t *testing.T) {
 	}
 	rec := do(t, h, http.MethodGet, "/materials/cellular_glass_c552_t1?units=us", nil, nil)
 	body := rec.Body.String()
-	// ASTM C552 Type I: 0.31 Btu·in/h·ft²·°F at 75 °F (METHODS.md [read]); the point's tooltip in US units
+	// ASTM C552 Type I: 0.31 Btu·in/h·ft²·°F at 75 °F (docs/references.md); the point's tooltip in US units
 	for _, want := range []string{"mean temperature, °F", "k, Btu·in/h·ft²·°F", "75.0 °F: 0.310 Btu·in/h·ft²·°F", "service range −450 to 800 °F"} {
 		if !strings.Contains(body, want) {
 			t.Errorf("US chart lacks %q", want)
