@@ -40,6 +40,7 @@ import (
 // Options bound a run.
 type Options struct {
 	Target    string        // base URL of the app: loopback only
+	Also      []string      // more instances of the same app (same database): page and calc requests go round robin over all
 	ProjectID int64         // 0: seed a new project of Lines lines
 	Lines     int           // lines to seed (default 500)
 	Clients   int           // concurrent clients (default 64)
@@ -97,6 +98,16 @@ func Run(ctx context.Context, opt Options, log io.Writer) ([]Result, error) {
 	}}
 	defer client.CloseIdleConnections()
 	app := strings.TrimRight(base.String(), "/")
+	apps := []string{app}
+	for _, t := range opt.Also {
+		u, err := checkLoopback(t)
+		if err != nil {
+			return nil, err
+		}
+		apps = append(apps, strings.TrimRight(u.String(), "/"))
+	}
+	var turn atomic.Int64
+	next := func() string { return apps[int(turn.Add(1))%len(apps)] }
 	if opt.User != "" {
 		if err := login(ctx, client, app, opt.User, opt.Password); err != nil {
 			return nil, err
@@ -110,8 +121,8 @@ func Run(ctx context.Context, opt Options, log io.Writer) ([]Result, error) {
 		}
 		fmt.Fprintf(log, "seeded project %d with %d lines in %v\n", id, opt.Lines, time.Since(t0).Round(time.Millisecond))
 	}
-	pageURL := fmt.Sprintf("%s/projects/%d", app, id)
-	page, err := get(ctx, client, pageURL)
+	pagePath := fmt.Sprintf("/projects/%d", id)
+	page, err := get(ctx, client, app+pagePath)
 	if err != nil {
 		return nil, err
 	}
@@ -143,13 +154,13 @@ func Run(ctx context.Context, opt Options, log io.Writer) ([]Result, error) {
 		req  func(ctx context.Context) (*http.Request, error)
 	}{
 		{"page", func(ctx context.Context) (*http.Request, error) {
-			return http.NewRequestWithContext(ctx, "GET", pageURL, nil)
+			return http.NewRequestWithContext(ctx, "GET", next()+pagePath, nil)
 		}},
 		{"static", func(ctx context.Context) (*http.Request, error) {
 			return http.NewRequestWithContext(ctx, "GET", staticURL, nil)
 		}},
 		{"calc", func(ctx context.Context) (*http.Request, error) {
-			r, err := http.NewRequestWithContext(ctx, "POST", app+"/api/v1/calc", bytes.NewReader(calcBody))
+			r, err := http.NewRequestWithContext(ctx, "POST", next()+"/api/v1/calc", bytes.NewReader(calcBody))
 			if err == nil {
 				r.Header.Set("Content-Type", "application/json")
 			}
