@@ -28,8 +28,13 @@ const (
 	// writes, short enough that a stuck statement frees its connection.
 	DefaultStatementTimeout = 30 * time.Second
 	// DefaultAcquireTimeout is how long a request waits for a pooled connection (or
-	// a new one) before it is answered 503.
-	DefaultAcquireTimeout = 5 * time.Second
+	// a new one) before it is answered 503. Waiting in line for a busy pool is no sign
+	// of a hung server (that shows in pingTimeout and the connect timeout), so it is
+	// generous: an overloaded machine slows answers down rather than refusing them.
+	DefaultAcquireTimeout = 15 * time.Second
+	// pingTimeout bounds the liveness check of a connection that sat idle before
+	// it is handed out: a frozen server is noticed within it.
+	pingTimeout = 2 * time.Second
 )
 
 // Options are the settings of Open beyond the DSN.
@@ -60,6 +65,7 @@ func OpenWith(ctx context.Context, dsn string, opt Options) (*Store, error) {
 	cfg.MaxConnIdleTime = 5 * time.Minute
 	cfg.MaxConnLifetime = time.Hour
 	cfg.HealthCheckPeriod = 30 * time.Second
+	cfg.PingTimeout = pingTimeout
 	if cfg.ConnConfig.ConnectTimeout == 0 {
 		cfg.ConnConfig.ConnectTimeout = defaultConnectTimeout
 	}

@@ -41,7 +41,7 @@ func parseConfig(name string, args []string, getenv func(string) string, stderr 
 	fs.StringVar(&cfg.DataDir, "data", cfg.DataDir, "data folder (LAGWRIGHT_DATA)")
 	fs.StringVar(&level, "log-level", level, "debug, info, warn or error (LAGWRIGHT_LOG_LEVEL)")
 	fs.StringVar(&stmt, "statement-timeout", stmt, "longest a database statement may run, e.g. 30s (LAGWRIGHT_STATEMENT_TIMEOUT; default: DATABASE_URL's, else 30s)")
-	fs.StringVar(&acquire, "acquire-timeout", acquire, "longest a request waits for a database connection, e.g. 5s (LAGWRIGHT_ACQUIRE_TIMEOUT)")
+	fs.StringVar(&acquire, "acquire-timeout", acquire, "longest a request waits for a database connection, e.g. 15s (LAGWRIGHT_ACQUIRE_TIMEOUT)")
 	if err := fs.Parse(args); err != nil {
 		if errors.Is(err, flag.ErrHelp) {
 			return cfg, nil, usageError{"help requested"}

@@ -58,6 +58,7 @@ type Result struct {
 	Elapsed  time.Duration
 	P50, P99 time.Duration
 	Bytes    int64 // of one answer
+	FirstErr string // the first failure, to say what failed
 }
 
 // RPS is the throughput in requests per second.
@@ -176,6 +177,9 @@ func Run(ctx context.Context, opt Options, log io.Writer) ([]Result, error) {
 		out = append(out, res)
 		fmt.Fprintf(log, "%-6s %6d requests in %5.2fs  %8.0f req/s  p50 %7.2f ms  p99 %7.2f ms  errors %d\n", res.Name, res.Requests,
 			res.Elapsed.Seconds(), res.RPS(), ms(res.P50), ms(res.P99), res.Errors)
+		if res.FirstErr != "" {
+			fmt.Fprintf(log, "       first error: %s\n", res.FirstErr)
+		}
 	}
 	return out, nil
 }
@@ -196,6 +200,7 @@ func drive(ctx context.Context, client *http.Client, name string, mk func(contex
 	// client's timeout), so a slow page is measured, not cut off.
 	deadline := time.Now().Add(opt.Duration)
 	var sent, errs atomic.Int64
+	var firstErr atomic.Value
 	lat := make([][]time.Duration, opt.Clients)
 	var wg sync.WaitGroup
 	t0 := time.Now()
@@ -219,6 +224,7 @@ func drive(ctx context.Context, client *http.Client, name string, mk func(contex
 				lat[w] = append(lat[w], time.Since(t))
 				if err != nil {
 					errs.Add(1)
+					firstErr.CompareAndSwap(nil, err.Error())
 				}
 			}
 		})
@@ -228,6 +234,7 @@ func drive(ctx context.Context, client *http.Client, name string, mk func(contex
 	all := slices.Concat(lat...)
 	slices.Sort(all)
 	r := Result{Name: name, Requests: len(all), Errors: int(errs.Load()), Elapsed: elapsed}
+	r.FirstErr, _ = firstErr.Load().(string)
 	if len(all) > 0 {
 		r.P50, r.P99 = all[len(all)*50/100], all[min(len(all)-1, len(all)*99/100)]
 	}
