@@ -57,7 +57,7 @@ type Result struct {
 	Errors   int
 	Elapsed  time.Duration
 	P50, P99 time.Duration
-	Bytes    int64 // of one answer
+	Bytes    int64  // of one answer
 	FirstErr string // the first failure, to say what failed
 }
 
