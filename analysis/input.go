@@ -29,7 +29,11 @@ type Input struct {
 
 	InnerCoeff *float64 `json:"inner_coeff_w_m2k,omitempty"`
 
-	Fluid                 string   `json:"fluid,omitempty"` // water (default) | steam | glycol | refrigerant | air | other
+	Fluid string `json:"fluid,omitempty"` // water (default) | steam | glycol | refrigerant | air | other
+	// System is the building or process system the line serves (catalog.Systems, e.g.
+	// "chilled_water", "domestic_cold_water", "supply_air"): the energy-code check runs only
+	// where the table covers it. Empty: the table applies by temperature alone.
+	System                string   `json:"system,omitempty"`
 	OperatingTempC        *float64 `json:"operating_temp_c,omitempty"`
 	SteamGaugePressureKPa *float64 `json:"steam_gauge_pressure_kpa,omitempty"`
 

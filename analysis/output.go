@@ -116,8 +116,13 @@ type LayerPlan struct {
 
 // EnergyCodeRow is the compliance row against an energy-code minimum table.
 type EnergyCodeRow struct {
-	Table            string    `json:"table"`
-	Edition          string    `json:"edition"`
+	Table   string `json:"table"`
+	Edition string `json:"edition"`
+	// Applies is false when the table does not cover the line's system (or shape); Reason
+	// then says so ("not covered by <name> (<edition>)") and nothing else is checked.
+	Applies          bool      `json:"applies"`
+	Reason           string    `json:"reason,omitempty"`
+	System           string    `json:"system,omitempty"`
 	Row              string    `json:"row"`
 	Column           string    `json:"column"`
 	Required         bool      `json:"required"`

@@ -255,8 +255,19 @@ func (a *analyser) energyCode(cands []float64) error {
 	if t == nil {
 		return nil
 	}
+	if !t.Covers(l.in.System) || (t.Kind == "pipe") != l.shape.IsPipe() {
+		// Not checked: the table does not govern this line. No thickness follows from it.
+		why := "not covered by " + t.Title()
+		if t.Kind == "pipe" && !l.shape.IsPipe() {
+			why += ": a pipe table, and this line is not a pipe"
+		}
+		o.EnergyCode = &EnergyCodeRow{Table: t.Name, Edition: t.Edition, Reason: why, System: l.in.System,
+			SpecifiedMM: o.InsulationMM, Source: t.Source}
+		l.assumeText("energy code: " + why)
+		return nil
+	}
 	row, _, col, required := t.Lookup(l.opC, l.nominalIn)
-	out := &EnergyCodeRow{Table: t.Name, Edition: t.Edition, Required: required,
+	out := &EnergyCodeRow{Table: t.Name, Edition: t.Edition, Applies: true, System: l.in.System, Required: required,
 		SpecifiedMM: o.InsulationMM, Pass: true, Source: t.Source}
 	if col >= 0 {
 		out.Column = t.Columns[col].Label

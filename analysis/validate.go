@@ -444,6 +444,17 @@ var defaultCp = map[string]float64{
 }
 
 func resolveFluid(l *line, c *errs) {
+	if sys := l.in.System; sys != "" {
+		air := sys == "supply_air" || sys == "return_air" || sys == "exhaust"
+		switch {
+		case !catalog.IsSystem(sys):
+			c.add("system", "must be one of %s", strings.Join(catalog.Systems, ", "))
+		case air && l.shape.IsPipe():
+			c.add("system", "%s is an air system: a duct or flat, not a pipe", sys)
+		case !air && sys != "process" && l.in.Geometry == "duct":
+			c.add("system", "%s is a piped system: a duct serves supply_air, return_air, exhaust or process", sys)
+		}
+	}
 	in := l.in
 	l.fluid = in.Fluid
 	if l.fluid == "" {
@@ -988,8 +999,6 @@ func resolveCriteria(l *line, c *errs) {
 		switch {
 		case !ok:
 			c.add("criteria.energy_code", "unknown energy-code table %q", cr.EnergyCode)
-		case !l.shape.IsPipe():
-			c.add("criteria.energy_code", "the energy-code pipe tables apply to pipes only")
 		default:
 			k.energyCode = &t
 		}

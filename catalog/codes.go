@@ -40,9 +40,27 @@ type CodeColumn struct {
 	MinNominalIn, MaxNominalIn float64
 }
 
+// Systems are the building and process systems a line can serve (the calc JSON's
+// `system`); a code table names the ones it covers.
+var Systems = []string{"heating_hot_water", "steam_condensate", "domestic_hot_water", "domestic_cold_water",
+	"chilled_water", "brine", "refrigerant", "process", "supply_air", "return_air", "exhaust"}
+
+// IsSystem reports whether s is one of Systems.
+func IsSystem(s string) bool {
+	for _, x := range Systems {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
+
 // CodeTable is an energy-code minimum pipe insulation table.
 type CodeTable struct {
 	ID, Name, Edition string
+	Jurisdiction      string        // where the edition is adopted, as the user notes it
+	Kind              string        // "pipe" (thickness by temperature row × size column) | "duct"
+	Systems           []string      // the systems the table covers (see Systems)
 	Columns           [5]CodeColumn // <1, 1–<1½, 1½–<4, 4–<8, ≥8
 	Rows              []CodeRow
 	// RefEnd names the end of a row's conductivity range used as k in the correction
@@ -64,9 +82,15 @@ var inf = math.Inf(1)
 
 var codeTables = []CodeTable{
 	{
-		ID:      "ashrae-90.1-2016",
-		Name:    "ASHRAE/IES Standard 90.1 minimum pipe insulation thickness",
-		Edition: "90.1-2016",
+		ID:           "ashrae-90.1-2016",
+		Name:         "ASHRAE/IES Standard 90.1 minimum pipe insulation thickness",
+		Edition:      "90.1-2016",
+		Jurisdiction: "where ASHRAE/IES 90.1-2016 (or a code adopting it) is in force",
+		Kind:         "pipe",
+		// Section 6.8.3 covers heating and service hot water piping and cooling piping
+		// (chilled water, brine, refrigerant); domestic cold water and process piping are
+		// outside its scope (common practice reading of the standard's scope, section 2).
+		Systems: []string{"heating_hot_water", "steam_condensate", "domestic_hot_water", "chilled_water", "brine", "refrigerant"},
 		Columns: [5]CodeColumn{
 			{"<1", 0, 1},
 			{"1 to <1-1/2", 1, 1.5},
@@ -105,7 +129,30 @@ var codeTables = []CodeTable{
 
 func (t CodeTable) clone() CodeTable {
 	t.Rows = append([]CodeRow(nil), t.Rows...)
+	t.Systems = append([]string(nil), t.Systems...)
 	return t
+}
+
+// Covers reports whether the table applies to a system. An empty system is covered: the
+// line did not say, and the table applies by temperature alone.
+func (t CodeTable) Covers(system string) bool {
+	if system == "" {
+		return true
+	}
+	for _, s := range t.Systems {
+		if s == system {
+			return true
+		}
+	}
+	return false
+}
+
+// Title names the table as a reader cites it: name and edition, never the id.
+func (t CodeTable) Title() string {
+	if t.Edition == "" {
+		return t.Name
+	}
+	return t.Name + " (" + t.Edition + ")"
 }
 
 // CodeTables returns every energy-code table.

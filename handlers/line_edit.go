@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"net/http"
 	"strconv"
+	"strings"
 
 	"github.com/a-h/templ"
 
@@ -99,6 +100,10 @@ func (s *Server) lineView(c *lineCtx, st *formState, res web.LineResults) web.Li
 	v.Fluids = []web.Choice{{Value: "", Label: "water (default)"}}
 	for _, f := range []string{"water", "steam", "glycol", "refrigerant", "air", "other"} {
 		v.Fluids = append(v.Fluids, web.Choice{Value: f, Label: f})
+	}
+	v.Systems = []web.Choice{{Value: "", Label: "not given (code check by temperature)"}}
+	for _, sys := range catalog.Systems {
+		v.Systems = append(v.Systems, web.Choice{Value: sys, Label: strings.ReplaceAll(sys, "_", " ")})
 	}
 	v.Materials = []web.Choice{{Value: "", Label: "—"}}
 	for _, m := range c.lib.MaterialChoices() {

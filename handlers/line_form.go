@@ -251,7 +251,7 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	var lf lineFields
 	pf := r.PostForm
 	for _, k := range []string{"tag", "service", "location", "exposure", "notes", "version", "shape", "pipe_size",
-		"pipe_schedule", "pipe_material", "fluid", "jacket"} {
+		"pipe_schedule", "pipe_material", "fluid", "system", "jacket"} {
 		st.Values.Set(k, pf.Get(k))
 	}
 	lf.Tag, lf.Service, lf.Notes = pf.Get("tag"), pf.Get("service"), strings.ReplaceAll(pf.Get("notes"), "\r\n", "\n")
@@ -266,7 +266,7 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	readShape(pf.Get("shape"), in, st)
 	in.PipeSize, in.PipeSchedule = strings.TrimSpace(pf.Get("pipe_size")), strings.TrimSpace(pf.Get("pipe_schedule"))
 	in.PipeMaterial, in.Fluid = strings.TrimSpace(pf.Get("pipe_material")), strings.TrimSpace(pf.Get("fluid"))
-	in.Jacket = strings.TrimSpace(pf.Get("jacket"))
+	in.Jacket, in.System = strings.TrimSpace(pf.Get("jacket")), strings.TrimSpace(pf.Get("system"))
 	for _, n := range lineNums {
 		if v, ok := readNum(r, n.numField, sys, st); ok {
 			x := v.(float64)
@@ -402,7 +402,7 @@ func readLayers(r *http.Request, sys units.System, st *formState) []analysis.Lay
 // lineFieldKey maps an analysis field path to the form field showing it.
 func lineFieldKey(st *formState) func(string) (string, bool) {
 	known := map[string]bool{"tag": true, "service": true, "location": true, "exposure": true, "notes": true,
-		"pipe_size": true, "pipe_schedule": true, "pipe_material": true, "fluid": true, "jacket": true, "criteria.freeze_model": true}
+		"pipe_size": true, "pipe_schedule": true, "pipe_material": true, "fluid": true, "system": true, "jacket": true, "criteria.freeze_model": true}
 	for _, f := range lineNumFields {
 		known[f.Key] = true
 	}
@@ -472,6 +472,7 @@ func lineFormValues(l store.Line, in analysis.Input, fit analysis.Fittings, sys 
 	st.Values.Set("pipe_schedule", in.PipeSchedule)
 	st.Values.Set("pipe_material", in.PipeMaterial)
 	st.Values.Set("fluid", in.Fluid)
+	st.Values.Set("system", in.System)
 	st.Values.Set("jacket", in.Jacket)
 	shown := in // the accessors allocate parents: read from a copy
 	for _, n := range lineNums {
@@ -549,7 +550,7 @@ func formHidden(stored analysis.Input) analysis.Input {
 	h.Geometry, h.Orientation, h.Facing = "", "", ""
 	h.PipeSize, h.PipeSchedule, h.PipeODmm, h.PipeMaterial = "", "", nil, ""
 	h.DuctWidthMM, h.DuctHeightMM, h.HeightM, h.AreaM2, h.LengthM = nil, nil, nil, nil, nil
-	h.Fluid, h.OperatingTempC, h.SteamGaugePressureKPa, h.Flow = "", nil, nil, nil
+	h.Fluid, h.System, h.OperatingTempC, h.SteamGaugePressureKPa, h.Flow = "", "", nil, nil, nil
 	h.Layers, h.Jacket, h.SurfaceEmittance = nil, "", nil
 	h.FittingFinish, h.FittingCover, h.Supports = nil, nil, nil // all on the form
 	if stored.Criteria != nil {

@@ -165,7 +165,7 @@ func buildResults(eff analysis.Input, st analysis.Stored, sys units.System, name
 	}
 	if ec := o.EnergyCode; ec != nil {
 		e := &web.EnergyCodeResult{Table: ec.Table + " (" + ec.Edition + ")", Row: ec.Row, Column: ec.Column,
-			Specified: f(units.Length, ec.SpecifiedMM), Required: ec.Required, Pass: ec.Pass}
+			Specified: f(units.Length, ec.SpecifiedMM), Required: ec.Required, Pass: ec.Pass, NotCovered: ec.Reason}
 		if ec.TableThicknessMM != nil {
 			e.TableThickness = f(units.Length, *ec.TableThicknessMM)
 		}

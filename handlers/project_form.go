@@ -246,7 +246,7 @@ func (s *Server) projectFormView(st *formState, p *store.Project) web.ProjectFor
 		v.Locations = append(v.Locations, lv)
 	}
 	for _, t := range catalog.CodeTables() {
-		v.EnergyCodes = append(v.EnergyCodes, web.Choice{Value: t.ID, Label: t.ID})
+		v.EnergyCodes = append(v.EnergyCodes, web.Choice{Value: t.ID, Label: t.Title()})
 	}
 	other := units.US
 	v.UnitsName, v.SwitchLabel = "SI (mm, °C, W/m, m)", "Use US customary units instead"

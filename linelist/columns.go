@@ -168,6 +168,7 @@ func buildColumns() []column {
 	)
 	cols = append(cols,
 		text("fluid", "fluid", func(b *builder) *string { return &b.row.Input.Fluid }, func(r *Row) string { return r.Input.Fluid }),
+		text("system", "system", func(b *builder) *string { return &b.row.Input.System }, func(r *Row) string { return r.Input.System }),
 		qty("operating_temp", "operating_temp_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.row.Input.OperatingTempC },
 			func(in *analysis.Input) *float64 { return in.OperatingTempC }),
 		qty("dew_point", "dew_point_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.row.Input.DewPointC },

@@ -92,6 +92,7 @@ func Template(sys units.System) []byte {
 		"cover_thickness":  {"50", "2"},
 		"support_kind":     {"clamp", "clamp"},
 		"fluid":            {"water", "water"},
+		"system":           {"heating_hot_water", "heating_hot_water"},
 		"operating_temp":   {"82", "180"},
 		"mass_flow":        {"0.5", "4000"},
 		"layer1_material":  {"mineral_fiber_pipe_c547_t1", "mineral_fiber_pipe_c547_t1"},

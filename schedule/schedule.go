@@ -139,7 +139,7 @@ type Row struct {
 	HeatFlowWPerM   *float64               `json:"heat_flow_w_per_m"`
 	SurfaceC        *float64               `json:"surface_temp_c"`
 	Governing       string                 `json:"governing"`   // criterion that governs, in words
-	EnergyCode      string                 `json:"energy_code"` // "pass" | "fail" | "not required" | "" (not checked)
+	EnergyCode      string                 `json:"energy_code"` // "pass" | "fail" | "not required" | "not covered" | "" (not checked)
 	HeatTraceWPerM  *float64               `json:"heat_trace_w_per_m"`
 	Notes           string                 `json:"notes"`
 	Error           bool                   `json:"error,omitempty"` // the line could not be analysed
@@ -352,6 +352,8 @@ func buildRow(l Line, r Resolver) Row {
 	}
 	if ec := o.EnergyCode; ec != nil {
 		switch {
+		case ec.Reason != "": // the table does not cover the line's system
+			row.EnergyCode = "not covered"
 		case !ec.Required:
 			row.EnergyCode = "not required"
 		case ec.Pass:
