@@ -69,6 +69,10 @@ type analyser struct {
 	cache map[solveKey]calc.Result
 	nums  []float64 // backing of num
 	out   *Output   // the answer being built (set by Analyse; needed by run, not by solve or econBasis)
+	// codeResistance is the build's and the code's thermal resistance per metre
+	// (m·K/W) when a multi-layer build is judged against the energy code by resistance.
+	codeResistance *[2]float64
+	plan           [8]float64 // backing of layerPlan
 }
 
 type memoEntry struct {
@@ -109,10 +113,15 @@ func (a *analyser) system(tMM float64) calc.System {
 		return s
 	}
 	// calc.Solve keeps nothing of the system it is given, so one layer buffer serves
-	// every sized system of the analysis.
+	// every sized system of the analysis. A thickness above the largest single layer is
+	// installed (and solved) as the layers of layerPlan, each at its own mean temperature.
 	s := l.base
-	l.sized = append(l.sized[:0], l.base.Layers...)
-	l.sized[n-1].Thickness = tMM / 1000 * l.installed[n-1]
+	l.sized = append(l.sized[:0], l.base.Layers[:n-1]...)
+	for _, t := range a.layerPlan(tMM) {
+		ly := l.base.Layers[n-1]
+		ly.Thickness = t / 1000 * l.installed[n-1]
+		l.sized = append(l.sized, ly)
+	}
 	s.Layers = l.sized
 	return s
 }
@@ -128,7 +137,7 @@ func (a *analyser) systemKey(tMM float64) float64 {
 		return tMM
 	case tMM == 0 && n <= 1:
 		return bareSurface
-	case tMM > 0 && tMM/1000*l.installed[n-1] == l.base.Layers[n-1].Thickness:
+	case tMM > 0 && tMM/1000*l.installed[n-1] == l.base.Layers[n-1].Thickness && len(a.layerPlan(tMM)) == 1:
 		return asSpecified
 	}
 	return tMM
@@ -219,6 +228,9 @@ func (a *analyser) run() (*Output, error) {
 		return nil, err
 	}
 	if err := a.size(); err != nil {
+		return nil, err
+	}
+	if err := a.checks(); err != nil {
 		return nil, err
 	}
 	a.cautions()

@@ -63,10 +63,12 @@ type Input struct {
 	FittingCover    *FittingCover   `json:"fitting_cover,omitempty"`     // removable covers' build-up
 	Supports        *Supports       `json:"supports,omitempty"`
 
-	Flow          *Flow      `json:"flow,omitempty"`
-	Criteria      *Criteria  `json:"criteria,omitempty"`
-	ThicknessesMM []float64  `json:"thicknesses_mm,omitempty"`
-	Economics     *Economics `json:"economics,omitempty"`
+	Flow          *Flow     `json:"flow,omitempty"`
+	Criteria      *Criteria `json:"criteria,omitempty"`
+	ThicknessesMM []float64 `json:"thicknesses_mm,omitempty"`
+	// ThicknessSeries is "inch" or "metric"; default by pipe_size (DN: metric).
+	ThicknessSeries string     `json:"thickness_series,omitempty"`
+	Economics       *Economics `json:"economics,omitempty"`
 	// Existing is the line as found (an audit); Layers are then the proposed build.
 	Existing *Existing `json:"existing,omitempty"`
 }

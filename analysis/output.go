@@ -50,6 +50,7 @@ type Output struct {
 	HeatTraceWPerM      *float64 `json:"heat_trace_w_per_m"`
 	HeatTraceW          *float64 `json:"heat_trace_w"` // per run: length plus fittings
 
+	Checks     []Check        `json:"checks"`
 	Sizing     Sizing         `json:"sizing"`
 	EnergyCode *EnergyCodeRow `json:"energy_code"`
 	Economics  []EconomicsRow `json:"economics"`
@@ -101,12 +102,32 @@ type Sizing struct {
 	FreezeMM              *float64    `json:"freeze_mm"`
 	EnergyCodeMM          *float64    `json:"energy_code_mm"`
 	EconomicMM            *float64    `json:"economic_mm"`
+	JacketMaxTempMM       *float64    `json:"jacket_max_temp_mm"` // thinnest build keeping the jacket within its own limit
 	Governing             *string     `json:"governing"`
 	GoverningThicknessMM  *float64    `json:"governing_thickness_mm"`
 	LayersProposed        []LayerPlan `json:"layers_proposed"`
 	Candidates            []float64   `json:"candidates_mm"`
 	Unmet                 []string    `json:"unmet"`
 }
+
+// Check is one active criterion judged on the build as specified, at the criterion's own
+// conditions: the one place that says whether the line as drawn is acceptable. Badges,
+// project counts and the schedule read it; sizing (what would be enough) is separate.
+type Check struct {
+	Criterion string  `json:"criterion"` // personnel_protection, condensation, max_heat_flow, max_temp_change, freeze, energy_code, jacket_max_temp, service_temp
+	Label     string  `json:"label"`     // the criterion in words
+	Pass      bool    `json:"pass"`
+	Value     float64 `json:"value"` // what the build gives
+	Limit     float64 `json:"limit"` // what the criterion allows or needs
+	Unit      string  `json:"unit"`  // "°C", "K", "W/m", "W/m²", "h", "mm", "m·K/W"
+	Sense     string  `json:"sense"` // "max": value must be at most limit; "min": at least limit
+}
+
+// Check criteria keys beyond the sizing criteria.
+const (
+	CheckJacketMaxTemp = "jacket_max_temp" // the jacket's own surface-temperature limit
+	CheckServiceTemp   = "service_temp"    // a layer outside its material's service range
+)
 
 // LayerPlan is one layer of the proposed build-up.
 type LayerPlan struct {
@@ -125,6 +146,8 @@ type EnergyCodeRow struct {
 	System           string    `json:"system,omitempty"`
 	Row              string    `json:"row"`
 	Column           string    `json:"column"`
+	SizeUsed         string    `json:"size_used"`  // the size the column was read for: "CTS 1", "DN65", "OD 30 mm"
+	SizeBasis        string    `json:"size_basis"` // "pipe_size", "matched_od" (a standard OD within 0.5 mm) or "od" (the OD itself)
 	Required         bool      `json:"required"`
 	TableThicknessMM *float64  `json:"table_thickness_mm"`
 	KAtMeanWmK       *float64  `json:"k_at_mean_w_mk"`

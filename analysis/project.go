@@ -28,6 +28,9 @@ type ProjectSettings struct {
 	// CostTable is the installed cost per metre by material, size and thickness that
 	// Effective turns into each line's economics.installed_cost_per_m.
 	CostTable []CostRow `json:"cost_table,omitempty"`
+	// ThicknessSeries is the series lines are proposed from when they do not say
+	// ("inch" or "metric"; "" = by each line's size: DN metric, NPS and CTS inch).
+	ThicknessSeries string `json:"thickness_series,omitempty"`
 }
 
 // Location holds the design conditions of one location (indoor or outdoor) with its
@@ -252,6 +255,9 @@ func (p ProjectSettings) Validate() error {
 	if p.Economics != nil {
 		checkEconomics(p.Economics, "settings.economics.", false, &c)
 	}
+	if ts := p.ThicknessSeries; ts != "" && ts != "inch" && ts != "metric" {
+		c.add("settings.thickness_series", `must be "inch" or "metric"`)
+	}
 	for _, fe := range CostTable(p.CostTable).Validate() {
 		c.add(fmt.Sprintf("settings.cost_table[%d].%s", fe.Row, fe.Field), "%s", fe.Message)
 	}
@@ -303,6 +309,9 @@ func (p ProjectSettings) Effective(location string, line Input, fit Fittings) In
 		cr.EnergyCode = p.Criteria.EnergyCode
 	}
 	in.Criteria = &cr
+	if in.ThicknessSeries == "" {
+		in.ThicknessSeries = p.ThicknessSeries
+	}
 	if in.Economics == nil && p.Economics.Priced() {
 		e := *p.Economics // both bases: the analysis picks the line's own
 		if len(e.InstalledCostPerM) == 0 && len(p.CostTable) > 0 {

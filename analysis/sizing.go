@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strings"
 
 	"lagwright/calc"
 	"lagwright/catalog"
@@ -27,24 +28,132 @@ const (
 	critMaxHeatFlow
 	critMaxTempChange
 	critFreeze
+	critJacket
 )
 
-// candidates are the thicknesses the sized layer may take, ascending.
+// candidates are the thicknesses the sized layer may take in one layer, ascending. It
+// also sets up the layered builds: the material's largest single layer and its series.
 func (a *analyser) candidates() []float64 {
 	l := a.l
 	var c []float64
+	m := l.outerMaterial
 	switch {
 	case len(l.in.ThicknessesMM) > 0:
 		c = slices.Clone(l.in.ThicknessesMM)
-	case l.outerMaterial != nil && len(l.outerMaterial.ThicknessesMM) > 0:
-		c = slices.Clone(l.outerMaterial.ThicknessesMM)
-		l.assumeText("candidate thicknesses: the series of " + l.outerMaterial.Name)
+	case a.metric() && m != nil && len(m.ThicknessesMetricMM) > 0:
+		c = slices.Clone(m.ThicknessesMetricMM)
+		l.assumeText("candidate thicknesses: the metric series of " + m.Name + " (" + a.seriesWhy() + ")")
+	case a.metric() && m != nil && len(m.ThicknessesMM) > 0:
+		c = catalog.MetricFromInch(m.ThicknessesMM)
+		l.assumeText("candidate thicknesses: " + m.Name + " gives no metric series, so its inch series rounded to the nearest 5 mm (" + a.seriesWhy() + ")")
+	case a.metric():
+		c = catalog.MetricFromInch(catalog.ThicknessSeriesInch())
+		l.assumeText("candidate thicknesses: 15 to 150 mm in 5 mm steps rounded from the ½ in steps (no material series; " + a.seriesWhy() + ")")
+	case m != nil && len(m.ThicknessesMM) > 0:
+		c = slices.Clone(m.ThicknessesMM)
+		l.assumeText("candidate thicknesses: the series of " + m.Name)
 	default:
 		c = catalog.ThicknessSeriesInch()
 		l.assume("candidate thicknesses: ½ in steps (no material series for the sized layer)")
 	}
 	slices.Sort(c)
-	return slices.Compact(c)
+	c = slices.Compact(c)
+	if m != nil && m.MaxLayerMM > 0 {
+		l.maxLayerMM = m.MaxLayerMM
+		if len(l.in.ThicknessesMM) == 0 {
+			l.series = c
+			for _, t := range c {
+				if t <= m.MaxLayerMM+0.005 {
+					l.bigLayerMM = t
+				}
+			}
+		}
+	}
+	return c
+}
+
+// metric reports whether the sized layer is proposed from a metric series: as
+// thickness_series says, else for a line sized by DN.
+func (a *analyser) metric() bool {
+	l := a.l
+	switch l.in.ThicknessSeries {
+	case "metric":
+		return true
+	case "inch":
+		return false
+	}
+	return strings.HasPrefix(strings.ToUpper(strings.TrimSpace(l.in.PipeSize)), "DN")
+}
+
+// seriesWhy says why the metric series was taken.
+func (a *analyser) seriesWhy() string {
+	if a.l.in.ThicknessSeries == "metric" {
+		return "thickness_series metric"
+	}
+	return "a DN size"
+}
+
+// maxBuildLayers bounds a layered build of the sized layer (our choice: beyond four
+// layers another material or a guard is the sane answer).
+const maxBuildLayers = 4
+
+// layeredTotals are the totals of layered builds thicker than every single-layer
+// candidate: up to maxBuildLayers layers of the material's series, each at most its
+// largest single layer, the inner ones the largest and the outermost sized last, up to
+// the thickest a line may have. Empty when the material gives no largest layer.
+func (a *analyser) layeredTotals(cands []float64) []float64 {
+	l := a.l
+	if l.bigLayerMM <= 0 || len(cands) == 0 {
+		return nil
+	}
+	var out []float64
+	top := cands[len(cands)-1]
+	for n := 2; n <= maxBuildLayers; n++ {
+		for _, s := range l.series {
+			t := round(float64(n-1)*l.bigLayerMM+s, 2)
+			if s <= l.bigLayerMM+0.005 && t > top+0.005 && t <= maxThicknessMM {
+				out = append(out, t)
+			}
+		}
+	}
+	slices.Sort(out)
+	return slices.Compact(out)
+}
+
+// layerPlan splits a thickness of the sized layer into the layers that install it (nominal
+// mm): one layer up to the material's largest single layer; beyond it, equal layers when
+// that thickness is in the series (or there is no series), else the largest single layer
+// inside and the rest outermost (common practice: staggered joints). The slice is
+// scratch, valid until the next call.
+func (a *analyser) layerPlan(tMM float64) []float64 {
+	l := a.l
+	out := a.plan[:0]
+	maxL := l.maxLayerMM
+	if maxL <= 0 || tMM <= maxL+0.005 {
+		return append(out, tMM)
+	}
+	n := int(math.Ceil(tMM/maxL - 1e-9))
+	eq := tMM / float64(n)
+	inSeries := func(t float64) bool {
+		return slices.ContainsFunc(l.series, func(s float64) bool { return math.Abs(s-t) < 0.005 })
+	}
+	if len(l.series) == 0 || inSeries(eq) || l.bigLayerMM <= 0 {
+		for range n {
+			out = append(out, eq)
+		}
+		return out
+	}
+	rest := tMM - float64(n-1)*l.bigLayerMM
+	if rest <= 0.005 || rest > l.bigLayerMM+0.005 {
+		for range n {
+			out = append(out, eq)
+		}
+		return out
+	}
+	for range n - 1 {
+		out = append(out, l.bigLayerMM)
+	}
+	return append(out, round(rest, 2))
 }
 
 // size judges every criterion at its own conditions, each by bisection over the
@@ -63,6 +172,7 @@ func (a *analyser) size() error {
 	}
 	cands := a.candidates()
 	o.Sizing.Candidates = cands
+	layered := a.layeredTotals(cands)
 	crits, n := a.criteria()
 	for i := range n {
 		c := &crits[i]
@@ -70,9 +180,25 @@ func (a *analyser) size() error {
 		if c.kind == critCondensation && !a.condensationMonotone() {
 			find = thinnestScan
 		}
-		t, found, err := find(cands, func(t float64) (bool, error) { return a.meets(c, t) })
+		meets := func(t float64) (bool, error) { return a.meets(c, t) }
+		t, found, err := find(cands, meets)
+		if err == nil && !found && len(layered) > 0 {
+			if t, found, err = thinnestAbove(find, layered, meets); found {
+				l.assume("%s: no single layer of the series is enough, so a layered build of %s mm is proposed (at most %d layers, each at most %s mm)",
+					c.label, fmtRound(t, 1), maxBuildLayers, fmtRound(l.maxLayerMM, 1))
+			}
+		}
 		if err != nil {
 			return fmt.Errorf("%s: %w", c.label, err)
+		}
+		if found {
+			if ok, err := a.admissible(t); err != nil {
+				return err
+			} else if !ok {
+				o.Sizing.Unmet = append(o.Sizing.Unmet, c.key)
+				l.warn("%s: %s", c.label, a.outOfService())
+				continue
+			}
 		}
 		if !found {
 			o.Sizing.Unmet = append(o.Sizing.Unmet, c.key)
@@ -81,11 +207,22 @@ func (a *analyser) size() error {
 		}
 		a.setSizing(c.kind, a.num(t))
 	}
-	if err := a.energyCode(cands); err != nil {
+	if err := a.energyCode(append(cands[:len(cands):len(cands)], layered...)); err != nil {
 		return err
 	}
 	if err := a.economics(cands); err != nil {
 		return err
+	}
+	if e := o.Sizing.EconomicMM; e != nil && *e > 0 {
+		if ok, err := a.admissible(*e); err != nil {
+			return err
+		} else if !ok {
+			o.Sizing.EconomicMM = nil
+			if l.crit.economic {
+				o.Sizing.Unmet = append(o.Sizing.Unmet, "economic")
+			}
+			l.warn("economic thickness: %s", a.outOfService())
+		}
 	}
 	a.governing()
 	if err := a.condensationAtGoverning(); err != nil {
@@ -149,8 +286,19 @@ func (a *analyser) condensationMonotone() bool {
 	return l.opC < air.TempC && l.opC < air.SurroundingsC
 }
 
+// thinnestAbove is find over thicker builds only: the bare surface is not tried again.
+func thinnestAbove(find func([]float64, func(float64) (bool, error)) (float64, bool, error),
+	cands []float64, meets func(float64) (bool, error)) (float64, bool, error) {
+	return find(cands, func(t float64) (bool, error) {
+		if t == 0 {
+			return false, nil
+		}
+		return meets(t)
+	})
+}
+
 // criteria lists the criteria switched on for this line: the first n of list.
-func (a *analyser) criteria() (list [5]criterion, n int) {
+func (a *analyser) criteria() (list [6]criterion, n int) {
 	l := a.l
 	k := l.crit
 	add := func(c criterion) {
@@ -176,6 +324,9 @@ func (a *analyser) criteria() (list [5]criterion, n int) {
 	if k.freezeHours != nil && a.freezeApplies() {
 		add(criterion{kind: critFreeze, key: "freeze", label: "freeze protection"})
 	}
+	if j := l.jacket; j != nil && j.MaxSurfaceC > 0 && l.opC > j.MaxSurfaceC {
+		add(criterion{kind: critJacket, key: CheckJacketMaxTemp, label: "jacket temperature limit"})
+	}
 	return list, n
 }
 
@@ -193,6 +344,8 @@ func (a *analyser) setSizing(kind critKind, t *float64) {
 		s.MaxTempChangeMM = t
 	case critFreeze:
 		s.FreezeMM = t
+	case critJacket:
+		s.JacketMaxTempMM = t
 	}
 }
 
@@ -217,6 +370,9 @@ func (a *analyser) meets(c *criterion, tMM float64) (bool, error) {
 	case critMaxTempChange:
 		outC, err := a.outlet(tMM)
 		return math.Abs(l.opC-outC) <= *k.maxTempChange, err
+	case critJacket:
+		t, err := a.jacketSurface(tMM)
+		return t <= l.jacket.MaxSurfaceC, err
 	default: // critFreeze
 		h0, hf, err := a.freezeHours(tMM)
 		if k.freezeBasis == "fraction" {
@@ -226,25 +382,44 @@ func (a *analyser) meets(c *criterion, tMM float64) (bool, error) {
 	}
 }
 
-// unmet says in words why no available thickness meets criterion c.
+// outOfService says why a build of the sized material is not proposed.
+func (a *analyser) outOfService() string {
+	name := "the sized material"
+	if m := a.l.outerMaterial; m != nil {
+		name = m.Name + fmt.Sprintf(" (service range %s to %s °C)", fmtRound(m.MinC, 0), fmtRound(m.MaxC, 0))
+	}
+	return "not proposed: " + name + " would lie outside its service temperature range; use a material rated for this temperature, or an inner layer of one"
+}
+
+// unmet says in words why no available build meets criterion c, and what would help.
 func (a *analyser) unmet(c *criterion) string {
 	l := a.l
 	k := l.crit
 	switch c.kind {
 	case critPersonnel:
-		return fmt.Sprintf("no available thickness keeps the surface at or below %.0f °C; consider a guard or a different jacket", k.maxSurfaceC)
+		if air := l.personnel.air; math.Max(air.TempC, air.SurroundingsC) >= k.maxSurfaceC {
+			return fmt.Sprintf("the personnel ambient (%s °C air, %s °C surroundings) is itself at or above the %s °C touch limit, "+
+				"so no insulation can bring the surface below it: guard the line, or give the personnel conditions where people can touch it",
+				fmtRound(air.TempC, 1), fmtRound(air.SurroundingsC, 1), fmtRound(k.maxSurfaceC, 1))
+		}
+		return fmt.Sprintf("no available build keeps the surface at or below %s °C: guard the line, use a jacket of higher emittance "+
+			"(painted or non-metallic) or a material of lower conductivity", fmtRound(k.maxSurfaceC, 1))
 	case critCondensation:
 		if rh := *l.condensation.rh; rh > 88 {
 			return fmt.Sprintf("at %.0f %% relative humidity the air is close to saturation: no practical thickness prevents condensation; "+
 				"control the humidity, or accept and manage condensation", rh)
 		}
-		return "no available thickness keeps the surface above the dew point plus margin"
+		return "no available build keeps the surface above the dew point plus margin: use a material of lower conductivity, " +
+			"a jacket of higher emittance, or lower the humidity"
 	case critMaxHeatFlow:
-		return fmt.Sprintf("no available thickness keeps the heat flow at or below %s", fmtRound(*k.maxHeatFlow, 1))
+		return fmt.Sprintf("no available build keeps the heat flow at or below %s: use a material of lower conductivity "+
+			"or a jacket of lower emittance", fmtRound(*k.maxHeatFlow, 1))
 	case critMaxTempChange:
-		return fmt.Sprintf("no available thickness keeps the temperature change within %s K; raise the flow or shorten the run", fmtRound(*k.maxTempChange, 1))
+		return fmt.Sprintf("no available build keeps the temperature change within %s K; raise the flow or shorten the run", fmtRound(*k.maxTempChange, 1))
+	case critJacket:
+		return fmt.Sprintf("no available build keeps the surface within the %s °C limit of %s: use a metal jacket", fmtRound(l.jacket.MaxSurfaceC, 1), l.jacket.Name)
 	default: // critFreeze
-		return fmt.Sprintf("no available thickness holds the water above freezing for %s h: heat tracing is needed", fmtRound(*k.freezeHours, 1))
+		return fmt.Sprintf("no available build holds the water above freezing for %s h: heat tracing is needed", fmtRound(*k.freezeHours, 1))
 	}
 }
 
@@ -268,7 +443,12 @@ func (a *analyser) energyCode(cands []float64) error {
 	}
 	row, _, col, required := t.Lookup(l.opC, l.nominalIn)
 	out := &EnergyCodeRow{Table: t.Name, Edition: t.Edition, Applies: true, System: l.in.System, Required: required,
-		SpecifiedMM: o.InsulationMM, Pass: true, Source: t.Source}
+		SpecifiedMM: o.InsulationMM, Pass: true, Source: t.Source, SizeUsed: l.sizeUsed, SizeBasis: l.sizeBasis}
+	if l.sizeBasis == "matched_od" {
+		l.assumeText("energy code: the outside diameter matches " + l.sizeUsed + " within 0.5 mm, so its column is read for that size")
+	} else if l.sizeBasis == "od" {
+		l.assumeText("energy code: the outside diameter matches no standard size of its family, so the column is read for the diameter itself in inches")
+	}
 	if col >= 0 {
 		out.Column = t.Columns[col].Label
 	}
@@ -310,6 +490,13 @@ func (a *analyser) energyCode(cands []float64) error {
 	need := corrected - inner
 	for _, c := range cands {
 		if c >= need-0.005 {
+			if ok, err := a.admissible(c); err != nil {
+				return err
+			} else if !ok {
+				o.Sizing.Unmet = append(o.Sizing.Unmet, "energy_code")
+				l.warn("energy code: %s", a.outOfService())
+				return nil
+			}
 			o.Sizing.EnergyCodeMM = a.num(c)
 			break
 		}
@@ -319,7 +506,8 @@ func (a *analyser) energyCode(cands []float64) error {
 	}
 	if o.Sizing.EnergyCodeMM == nil {
 		o.Sizing.Unmet = append(o.Sizing.Unmet, "energy_code")
-		l.warn("energy code: no available thickness reaches the required %.1f mm", corrected)
+		l.warn("energy code: no available build reaches the required %.1f mm: use a material of lower conductivity "+
+			"(the required thickness grows with it)", corrected)
 	}
 	return nil
 }
@@ -328,16 +516,23 @@ func (a *analyser) energyCode(cands []float64) error {
 const btuInToSI = catalog.BtuInToWmK
 
 // governing picks the criterion that needs the most insulation, and the layers to
-// install it (two layers with staggered joints above the largest single layer).
+// install it. A criterion no available build meets governs with no thickness: the
+// line is never proposed below an unmet requirement.
 func (a *analyser) governing() {
 	l, s := a.l, &a.out.Sizing
+	for _, u := range s.Unmet {
+		if u != "economic" {
+			s.Governing = ptr(u)
+			return
+		}
+	}
 	type cand struct {
 		key string
 		t   *float64
 	}
 	list := []cand{{"personnel_protection", s.PersonnelProtectionMM}, {"condensation", s.CondensationMM},
 		{"max_heat_flow", s.MaxHeatFlowMM}, {"max_temp_change", s.MaxTempChangeMM}, {"freeze", s.FreezeMM},
-		{"energy_code", s.EnergyCodeMM}}
+		{"energy_code", s.EnergyCodeMM}, {CheckJacketMaxTemp, s.JacketMaxTempMM}}
 	if l.crit.economic {
 		list = append(list, cand{"economic", s.EconomicMM})
 	}
@@ -361,16 +556,18 @@ func (a *analyser) governing() {
 		return
 	}
 	slug := l.layerMaterials[n-1]
-	if m := l.outerMaterial; m != nil && m.MaxLayerMM > 0 && t > m.MaxLayerMM+0.005 {
-		k := int(math.Ceil(t / m.MaxLayerMM))
-		for i := 0; i < k; i++ {
-			s.LayersProposed = append(s.LayersProposed, LayerPlan{Material: slug, ThicknessMM: round(t/float64(k), 2)})
+	plan := a.layerPlan(t)
+	for _, p := range plan {
+		s.LayersProposed = append(s.LayersProposed, LayerPlan{Material: slug, ThicknessMM: round(p, 2)})
+	}
+	if len(plan) > 1 {
+		name := "the sized layer"
+		if m := l.outerMaterial; m != nil {
+			name = m.Name
 		}
 		l.warn("%.0f mm is more than the largest single layer of %s (%.0f mm): proposed as %d layers with staggered joints (common practice)",
-			t, m.Name, m.MaxLayerMM, k)
-		return
+			t, name, l.maxLayerMM, len(plan))
 	}
-	s.LayersProposed = append(s.LayersProposed, LayerPlan{Material: slug, ThicknessMM: t})
 }
 
 // heatTrace gives the heat-tracing load: on any pipe line whose criteria give a

@@ -57,8 +57,11 @@ type line struct {
 
 	pipe      *catalog.PipeSize
 	nominalIn float64 // nominal pipe size, inches; 0 = not a pipe or unknown
-	pipeMat   catalog.PipeMaterial
-	jacket    *catalog.Jacket
+	// sizeUsed names the size the energy-code column was read for ("CTS 1", "DN65",
+	// "OD 30 mm") and sizeBasis how: "pipe_size", "matched_od" or "od".
+	sizeUsed, sizeBasis string
+	pipeMat             catalog.PipeMaterial
+	jacket              *catalog.Jacket
 
 	fluid        string
 	opC          float64
@@ -84,6 +87,11 @@ type line struct {
 	design, personnel, condensation, freeze, econ airSet
 	crit                                          criteria
 	candidatesMM                                  []float64
+	// Layered builds of the sized layer (set by analyser.candidates): the largest single
+	// layer made (0: never split), the largest series thickness within it (0: no layered
+	// extension) and the series the layers come from.
+	maxLayerMM, bigLayerMM float64
+	series                 []float64
 
 	assumptions, warnings []string
 
@@ -410,9 +418,6 @@ func resolvePipe(l *line, c *errs) {
 		} else {
 			l.assume("pipe wall not modelled (plain outside diameter): the insulation's inner face is at the operating temperature")
 		}
-		if n, ok := catalog.NominalAtOrBelowOD(*in.PipeODmm); ok {
-			l.nominalIn = n
-		}
 	default:
 		c.add("pipe_size", `give pipe_size ("NPS 4", "DN100", "CTS 1") or pipe_od_mm`)
 	}
@@ -431,9 +436,29 @@ func resolvePipe(l *line, c *errs) {
 	}
 	l.pipeMat = pm
 	sys.WallK = pm.WallK
+	if l.pipe != nil {
+		l.sizeUsed, l.sizeBasis = l.pipe.Designation, "pipe_size"
+	} else if in.PipeODmm != nil && *in.PipeODmm > 0 {
+		sizeForOD(l, *in.PipeODmm)
+	}
 	if sys.PipeWall > 0 && in.InnerCoeff == nil {
 		l.assume("no inside film: the pipe's inner surface is at the operating temperature (conservative)")
 	}
+}
+
+// sizeForOD places a plain outside diameter in its tube family (copper tube for copper,
+// steel pipe otherwise): a standard OD within 0.5 mm gives its nominal size, any other
+// OD is read in inches against the column bounds itself.
+func sizeForOD(l *line, odMM float64) {
+	kind := catalog.Steel
+	if l.pipeMat.Slug == "copper" {
+		kind = catalog.Copper
+	}
+	if d, n, ok := catalog.SizeForOD(kind, odMM); ok {
+		l.nominalIn, l.sizeUsed, l.sizeBasis = n, d, "matched_od"
+		return
+	}
+	l.nominalIn, l.sizeUsed, l.sizeBasis = odMM/25.4, "OD "+fmtRound(odMM, 2)+" mm", "od"
 }
 
 // Default specific heats, J/kg·K, for the run's temperature change.
@@ -1005,6 +1030,11 @@ func resolveCriteria(l *line, c *errs) {
 	}
 	k.economic = cr.Economic != nil && *cr.Economic
 
+	switch l.in.ThicknessSeries {
+	case "", "inch", "metric":
+	default:
+		c.add("thickness_series", `must be "inch" or "metric"`)
+	}
 	if len(l.in.ThicknessesMM) > maxCandidates {
 		c.add("thicknesses_mm", "must have at most %d thicknesses", maxCandidates)
 	}

@@ -8,6 +8,50 @@ type Jacket struct {
 	PermeancePerm  float64 // water-vapour permeance, US perm; 0 = unknown or not applicable
 	Use            string  // "indoor", "outdoor", "indoor, cold service" …
 	Source         string
+	// SolarAbsorptance is the fraction of sunlight the exposed face absorbs (personnel
+	// protection outdoors); AbsorptanceSource says where it comes from.
+	SolarAbsorptance  float64
+	AbsorptanceSource string
+	// MaxSurfaceC is the hottest surface the jacket is made for, °C (0 = no limit given
+	// here); MaxSurfaceSource says where it comes from.
+	MaxSurfaceC      float64
+	MaxSurfaceSource string
+}
+
+const (
+	srcAbsorptance = "solar absorptance as recalled from published solar-absorptance tables (ASHRAE Fundamentals), check before use"
+	srcDarkAssumed = "colour not known: a dark face assumed (0.9), the safe side for personnel protection (common practice)"
+	srcJacket65    = "about 65 °C (150 °F) for PVC and paper or kraft facings (common practice; check the maker's limit)"
+)
+
+// jacketLimits are the solar absorptance and surface limit of each built-in jacket.
+var jacketLimits = map[string]struct {
+	alpha    float64
+	alphaSrc string
+	maxC     float64
+	maxSrc   string
+}{
+	"aluminium_new":          {0.15, srcAbsorptance, 0, ""},
+	"aluminium_weathered":    {0.35, srcAbsorptance, 0, ""},
+	"stainless_steel_jacket": {0.40, srcAbsorptance, 0, ""},
+	"stainless_steel_dull":   {0.50, srcAbsorptance, 0, ""},
+	"galvanised_new":         {0.65, srcAbsorptance, 0, ""},
+	"galvanised_dull":        {0.90, srcAbsorptance, 0, ""},
+	"painted_metal":          {0.90, srcDarkAssumed, 0, ""},
+	"pvc_jacket":             {0.90, srcDarkAssumed, 65, srcJacket65},
+	"all_service_jacket":     {0.40, "white kraft facing: " + srcAbsorptance, 65, srcJacket65},
+	"fsk":                    {0.15, "exposed aluminium foil: " + srcAbsorptance, 65, srcJacket65},
+	"mastic":                 {0.90, srcDarkAssumed, 0, ""},
+	"canvas":                 {0.90, srcDarkAssumed, 0, ""},
+}
+
+func init() {
+	for i := range jackets {
+		if v, ok := jacketLimits[jackets[i].Slug]; ok {
+			jackets[i].SolarAbsorptance, jackets[i].AbsorptanceSource = v.alpha, v.alphaSrc
+			jackets[i].MaxSurfaceC, jackets[i].MaxSurfaceSource = v.maxC, v.maxSrc
+		}
+	}
 }
 
 // Slugs are our own names in trade terms. Emittance basis: docs/references.md "Jacket and surface

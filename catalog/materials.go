@@ -8,14 +8,15 @@ type KPoint struct{ MeanC, K float64 }
 
 // Material is a generic insulation material class.
 type Material struct {
-	Slug, Name, Category, Spec string   // Spec: "ASTM C547 Type I"
-	Form                       string   // "pipe section", "tubing and sheet", "block and board", "blanket"
-	KPoints                    []KPoint // strictly increasing MeanC, at least 2 points
-	MinC, MaxC                 float64  // service limits, °C
-	ThicknessesMM              []float64
-	MaxLayerMM                 float64 // largest single layer made
-	Compressible               bool    // blanket that compresses when installed (duct wrap)
-	CompressionPct             float64 // default installed compression for blankets, else 0
+	Slug, Name, Category, Spec string    // Spec: "ASTM C547 Type I"
+	Form                       string    // "pipe section", "tubing and sheet", "block and board", "blanket"
+	KPoints                    []KPoint  // strictly increasing MeanC, at least 2 points
+	MinC, MaxC                 float64   // service limits, °C
+	ThicknessesMM              []float64 // inch series, in mm (NPS and CTS lines)
+	ThicknessesMetricMM        []float64 // metric series, whole mm (DN lines, metric projects)
+	MaxLayerMM                 float64   // largest single layer made
+	Compressible               bool      // blanket that compresses when installed (duct wrap)
+	CompressionPct             float64   // default installed compression for blankets, else 0
 	Source                     string
 }
 
@@ -42,6 +43,15 @@ var (
 	seriesElastomeric = inches(0.375, 0.5, 0.75, 1, 1.5, 2)
 	seriesDuctWrap    = inches(1, 1.5, 2, 3)
 	seriesAerogel     = []float64{10, 20, 30, 40, 50, 60, 70, 80} // 10 mm blankets in layers
+
+	// Metric series, whole millimetres in 5 or 10 mm steps where the trade makes them so
+	// (common practice, as recalled from makers' metric ranges, check before use).
+	metricPipeSection = []float64{20, 25, 30, 40, 50, 60, 70, 80, 90, 100, 120, 140, 150}
+	metricRigidPipe   = []float64{25, 30, 40, 50, 60, 70, 80, 90, 100, 120, 140, 150}
+	metricBoard       = []float64{25, 30, 40, 50, 60, 70, 80, 90, 100}
+	metricFoam        = []float64{20, 25, 30, 40, 50, 60, 70, 80, 90, 100}
+	metricElastomeric = []float64{10, 13, 19, 25, 32, 40, 50} // sheet and tube walls as made
+	metricDuctWrap    = []float64{25, 40, 50, 75}
 )
 
 const srcSeries = "thickness series and largest single layer: " + labelCommon + ", " + labelMemory + " with the maker"
@@ -57,7 +67,7 @@ var materials = []Material{
 			ip(400, 0.40), // 400 °F, 0.40
 		},
 		MinC: FToC(0), MaxC: FToC(850), // 0 to 850 °F
-		ThicknessesMM: seriesPipeSection, MaxLayerMM: in2mm(6),
+		ThicknessesMM: seriesPipeSection, ThicknessesMetricMM: metricPipeSection, MaxLayerMM: in2mm(6),
 		Source: "service limits 0–850 °F: ASTM C547; maximum apparent k: ASTM C547 Type I, " +
 			labelMemory + "; " + srcSeries,
 	},
@@ -74,7 +84,7 @@ var materials = []Material{
 			ip(700, 0.71), // 700 °F, 0.71
 		},
 		MinC: FToC(0), MaxC: FToC(1200), // 0 to 1200 °F
-		ThicknessesMM: seriesPipeSection, MaxLayerMM: in2mm(6),
+		ThicknessesMM: seriesPipeSection, ThicknessesMetricMM: metricPipeSection, MaxLayerMM: in2mm(6),
 		Source: "service limits 0–1200 °F: ASTM C547 Types II/III; maximum apparent k: " +
 			"ASTM C547 Type II, " + labelMemory + "; " + srcSeries,
 	},
@@ -87,7 +97,7 @@ var materials = []Material{
 			ip(200, 0.34), // 200 °F, 0.34
 		},
 		MinC: FToC(0), MaxC: FToC(450), // 0 to 450 °F
-		ThicknessesMM: seriesBoard, MaxLayerMM: in2mm(4),
+		ThicknessesMM: seriesBoard, ThicknessesMetricMM: metricBoard, MaxLayerMM: in2mm(4),
 		Source: "ASTM C612 Type IA/IB: service limits and maximum apparent k " + labelMemory + "; " + srcSeries,
 	},
 	{
@@ -101,7 +111,7 @@ var materials = []Material{
 			ip(800, 0.66), // 800 °F, 0.66 — from memory
 		},
 		MinC: FToC(80), MaxC: FToC(1200), // 80 to 1200 °F
-		ThicknessesMM: seriesRigidPipe, MaxLayerMM: in2mm(4),
+		ThicknessesMM: seriesRigidPipe, ThicknessesMetricMM: metricRigidPipe, MaxLayerMM: in2mm(4),
 		Source: "ASTM C533 Type I: service limits 80–1200 °F and maximum apparent k 0.41 Btu·in/(h·ft²·°F) at " +
 			"100 °F; k at 200–800 °F " + labelMemory + "; " + srcSeries,
 	},
@@ -115,7 +125,7 @@ var materials = []Material{
 			ip(400, 0.58), // 400 °F, 0.58
 		},
 		MinC: FToC(-450), MaxC: FToC(800), // −450 to 800 °F
-		ThicknessesMM: seriesRigidPipe, MaxLayerMM: in2mm(4),
+		ThicknessesMM: seriesRigidPipe, ThicknessesMetricMM: metricRigidPipe, MaxLayerMM: in2mm(4),
 		Source: "ASTM C552 Type I, maximum apparent k and service limits −450 to 800 °F; " +
 			"type names (block / pipe and tubing) " + labelMemory + "; " + srcSeries,
 	},
@@ -129,7 +139,7 @@ var materials = []Material{
 			ip(400, 0.63), // 400 °F, 0.63
 		},
 		MinC: FToC(-450), MaxC: FToC(800), // −450 to 800 °F
-		ThicknessesMM: seriesRigidPipe, MaxLayerMM: in2mm(4),
+		ThicknessesMM: seriesRigidPipe, ThicknessesMetricMM: metricRigidPipe, MaxLayerMM: in2mm(4),
 		Source: "ASTM C552 Type II, maximum apparent k and service limits −450 to 800 °F; " +
 			"type names (block / pipe and tubing) " + labelMemory + "; " + srcSeries,
 	},
@@ -141,7 +151,7 @@ var materials = []Material{
 			ip(75, 0.28), // 75 °F, 0.28
 		},
 		MinC: FToC(-297), MaxC: FToC(220), // −297 to 220 °F
-		ThicknessesMM: seriesElastomeric, MaxLayerMM: in2mm(2),
+		ThicknessesMM: seriesElastomeric, ThicknessesMetricMM: metricElastomeric, MaxLayerMM: in2mm(2),
 		Source: "ASTM C534 Grade 1, maximum apparent k and service limits −297 to 220 °F; " +
 			"Type I = tubular " + labelMemory + "; " + srcSeries,
 	},
@@ -154,7 +164,7 @@ var materials = []Material{
 			ip(200, 0.38), // 200 °F, 0.38
 		},
 		MinC: FToC(-297), MaxC: FToC(350), // −297 to 350 °F
-		ThicknessesMM: seriesElastomeric, MaxLayerMM: in2mm(1),
+		ThicknessesMM: seriesElastomeric, ThicknessesMetricMM: metricElastomeric, MaxLayerMM: in2mm(1),
 		Source: "ASTM C534 Grade 2, maximum apparent k and upper service limit 350 °F; " +
 			"lower limit −297 °F taken as Grade 1's, " + labelMemory + "; " + srcSeries,
 	},
@@ -167,7 +177,7 @@ var materials = []Material{
 			ip(200, 0.30), // 200 °F, 0.30 (range 0.26–0.30: upper end)
 		},
 		MinC: FToC(-297), MaxC: FToC(300), // −297 to 300 °F
-		ThicknessesMM: seriesFoam, MaxLayerMM: in2mm(4),
+		ThicknessesMM: seriesFoam, ThicknessesMetricMM: metricFoam, MaxLayerMM: in2mm(4),
 		Source: "ASTM C591, maximum apparent k (upper end of the range tabulated across types and grades) and " +
 			"service limits −297 to 300 °F; ASHRAE Fundamentals 2013 gives 0.0235 W/(m·K) " +
 			"aged at room temperature as a design value (ch. 26); " + srcSeries,
@@ -181,7 +191,7 @@ var materials = []Material{
 			ip(150, 0.16), // 150 °F, 0.16
 		},
 		MinC: FToC(-290), MaxC: FToC(257), // −290 to 257 °F
-		ThicknessesMM: seriesFoam, MaxLayerMM: in2mm(4),
+		ThicknessesMM: seriesFoam, ThicknessesMetricMM: metricFoam, MaxLayerMM: in2mm(4),
 		Source: "ASTM C1126 Type III: service limits −290 to 257 °F; maximum apparent k " +
 			labelMemory + "; " + srcSeries,
 	},
@@ -194,7 +204,7 @@ var materials = []Material{
 			ip(200, 0.44), // 200 °F, 0.44
 		},
 		MinC: FToC(40), MaxC: FToC(250), // 40 to 250 °F, faced duct wrap
-		ThicknessesMM: seriesDuctWrap, MaxLayerMM: in2mm(3),
+		ThicknessesMM: seriesDuctWrap, ThicknessesMetricMM: metricDuctWrap, MaxLayerMM: in2mm(3),
 		Compressible: true, CompressionPct: 25,
 		Source: "ASTM C553 / C1290: maximum apparent k at nominal (uncompressed) density and service limits of " +
 			"faced duct wrap " + labelMemory + " (C553 types run to 450–1200 °F, e.g. Incropera, Fundamentals of Heat and Mass Transfer, 6th ed., Table A.11); " +
@@ -210,7 +220,7 @@ var materials = []Material{
 			ip(600, 0.32), // 600 °F, 0.32
 		},
 		MinC: FToC(-40), MaxC: FToC(1200), // −40 to 1200 °F
-		ThicknessesMM: seriesAerogel, MaxLayerMM: 10,
+		ThicknessesMM: seriesAerogel, ThicknessesMetricMM: seriesAerogel, MaxLayerMM: 10,
 		Source: "ASTM C1728: type, service limits and maximum apparent k " + labelMemory +
 			"; 10 mm blankets applied in layers: " + labelCommon,
 	},
@@ -224,7 +234,7 @@ var materials = []Material{
 			ip(600, 0.70), // 600 °F, 0.70
 		},
 		MinC: FToC(80), MaxC: FToC(1200), // 80 to 1200 °F
-		ThicknessesMM: seriesRigidPipe, MaxLayerMM: in2mm(4),
+		ThicknessesMM: seriesRigidPipe, ThicknessesMetricMM: metricRigidPipe, MaxLayerMM: in2mm(4),
 		Source: "ASTM C610: service limits 80–1200 °F; maximum apparent k " + labelMemory +
 			"; " + srcSeries,
 	},
@@ -233,6 +243,7 @@ var materials = []Material{
 func (m Material) clone() Material {
 	m.KPoints = append([]KPoint(nil), m.KPoints...)
 	m.ThicknessesMM = append([]float64(nil), m.ThicknessesMM...)
+	m.ThicknessesMetricMM = append([]float64(nil), m.ThicknessesMetricMM...)
 	return m
 }
 
@@ -262,4 +273,17 @@ func ThicknessSeriesInch() []float64 { return append([]float64(nil), seriesPipeS
 // ThicknessSeriesMetric returns the metric series of pipe sections, mm (common practice).
 func ThicknessSeriesMetric() []float64 {
 	return []float64{13, 20, 25, 30, 40, 50, 60, 70, 80, 90, 100, 120, 140, 160}
+}
+
+// MetricFromInch gives a metric series for a material that has only an inch one: each
+// thickness to the nearest 5 mm (our rule; whole millimetres as metric ranges are made).
+func MetricFromInch(inchMM []float64) []float64 {
+	out := make([]float64, 0, len(inchMM))
+	for _, t := range inchMM {
+		v := math.Max(5, math.Round(t/5)*5)
+		if len(out) == 0 || v > out[len(out)-1] {
+			out = append(out, v)
+		}
+	}
+	return out
 }

@@ -2,6 +2,7 @@ package catalog
 
 import (
 	"math"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -174,6 +175,24 @@ func TestThicknessSeries(t *testing.T) {
 		if metric[i] != wantMM[i] {
 			t.Errorf("metric series[%d] = %g, want %g", i, metric[i], wantMM[i])
 		}
+	}
+	for _, m := range Materials() {
+		ms := m.ThicknessesMetricMM
+		if len(ms) < 4 {
+			t.Errorf("%s: metric series %v, want one (DN lines and metric projects size from it)", m.Slug, ms)
+		}
+		for i, v := range ms {
+			if v != math.Round(v) || v <= 0 || (i > 0 && v <= ms[i-1]) {
+				t.Errorf("%s: metric series %v: whole millimetres, ascending (common practice)", m.Slug, ms)
+				break
+			}
+		}
+		if top, inTop := ms[len(ms)-1], m.ThicknessesMM[len(m.ThicknessesMM)-1]; top > inTop+5 || top < inTop-30 {
+			t.Errorf("%s: metric series up to %g mm against the inch series up to %g mm", m.Slug, top, inTop)
+		}
+	}
+	if got := MetricFromInch(inch); !slices.Equal(got, []float64{15, 25, 40, 50, 65, 75, 90, 100, 115, 125, 150}) {
+		t.Errorf("MetricFromInch(inch series) = %v", got)
 	}
 	inch[0] = 0
 	if ThicknessSeriesInch()[0] != 12.7 {

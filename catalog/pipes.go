@@ -365,20 +365,45 @@ func findSize(match func(PipeSize) bool) *PipeSize {
 // 48.26 mm against 48.3). Adjacent steel ODs differ by at least 5.4 mm.
 const odToleranceMM = 0.5
 
-// NominalAtOrBelowOD returns the nominal size (in) of the largest steel pipe whose OD is at
-// or below odMM (within 0.5 mm, see odToleranceMM), for placing a plain outside diameter in
-// an energy-code column. ok is false when odMM is below the OD of NPS 1/2 (21.3 mm) or not a
-// number; a caller then uses the smallest column.
-func NominalAtOrBelowOD(odMM float64) (nominalIn float64, ok bool) {
-	if math.IsNaN(odMM) {
-		return 0, false
+// isoODs are the outside diameters of steel pipe by DN, ISO 4200 / EN 10220 series 1 (mm),
+// where they differ from ASME B36.10M's (DN 20 26.9 against 26.7 …): values as recalled
+// from ISO 4200, check before use. The DN's nominal size in inches is ISO 6708's pairing.
+var isoODs = []struct {
+	dn int
+	od float64
+}{
+	{15, 21.3}, {20, 26.9}, {25, 33.7}, {32, 42.4}, {40, 48.3}, {50, 60.3}, {65, 76.1}, {80, 88.9},
+	{100, 114.3}, {125, 139.7}, {150, 168.3}, {200, 219.1}, {250, 273.0}, {300, 323.9}, {350, 355.6},
+	{400, 406.4}, {450, 457}, {500, 508}, {600, 610},
+}
+
+// SizeForOD names the standard size whose outside diameter matches odMM within 0.5 mm
+// (odToleranceMM) in the tube family: copper tube by CTS (ASTM B88, OD = nominal + 1/8 in),
+// any other pipe by NPS (ASME B36.10M ODs) and then by DN (ISO 4200 / EN 10220 ODs).
+// It returns the designation ("NPS 1", "CTS 1", "DN65") and its nominal size in inches
+// for the energy-code columns; ok is false when no standard OD matches.
+func SizeForOD(kind PipeKind, odMM float64) (designation string, nominalIn float64, ok bool) {
+	if math.IsNaN(odMM) || odMM <= 0 {
+		return "", 0, false
 	}
-	for _, r := range steelRows {
-		if r.od <= odMM+odToleranceMM {
-			nominalIn, ok = r.nps, true
-		} else {
-			break
+	best := odToleranceMM + 1e-9
+	for _, p := range pipeSizes {
+		if d := math.Abs(p.ODmm - odMM); p.Kind == kind && d <= best {
+			designation, nominalIn, ok, best = p.Designation, p.NominalIn, true, d
 		}
 	}
-	return nominalIn, ok
+	if ok || kind == Copper {
+		return designation, nominalIn, ok
+	}
+	for _, r := range isoODs {
+		if d := math.Abs(r.od - odMM); d <= best {
+			designation, ok, best = "DN"+strconv.Itoa(r.dn), true, d
+			for _, s := range steelRows {
+				if s.dn == r.dn {
+					nominalIn = s.nps
+				}
+			}
+		}
+	}
+	return designation, nominalIn, ok
 }

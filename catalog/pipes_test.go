@@ -286,28 +286,31 @@ func TestLookupPipeErrors(t *testing.T) {
 	}
 }
 
-// NominalAtOrBelowOD against ASME B36.10M ODs; the 0.5 mm tolerance is our choice.
-func TestNominalAtOrBelowOD(t *testing.T) {
+// SizeForOD: an outside diameter takes the standard size of its tube family when it
+// matches within 0.5 mm (our tolerance). ODs: ASTM B88 (copper tube, nominal + 1/8 in),
+// ASME B36.10M (NPS), ISO 4200 series 1 (DN, as recalled, check before use).
+func TestSizeForOD(t *testing.T) {
 	cases := []struct {
-		od   float64
-		want float64
-		ok   bool
+		kind    PipeKind
+		od      float64
+		want    string
+		nominal float64
 	}{
-		{60.3, 2, true},        // NPS 2 OD, ASME B36.10M
-		{60.325, 2, true},      // 2.375 in exactly
-		{48.26, 1.5, true},     // 1.900 in, just under the tabulated 48.3
-		{609.6, 24, true},      // 24 in, under the tabulated 610
-		{70, 2, true},          // between NPS 2 (60.3) and NPS 2-1/2 (73.0)
-		{53.975, 1.5, true},    // CTS 2 copper OD (2-1/8 in) as a plain OD
-		{21.3, 0.5, true},      // NPS 1/2
-		{20, 0, false},         // below NPS 1/2
-		{1000, 24, true},       // above NPS 24
-		{math.NaN(), 0, false}, // not a number
+		{Copper, 28.58, "CTS 1", 1},      // 1-1/8 in = 28.575 mm, ASTM B88
+		{Copper, 53.975, "CTS 2", 2},     // 2-1/8 in
+		{Copper, 33.4, "", 0},            // a steel OD is no copper tube
+		{Steel, 33.4, "NPS 1", 1},        // 1.315 in, ASME B36.10M
+		{Steel, 48.26, "NPS 1-1/2", 1.5}, // 1.900 in, just under the tabulated 48.3
+		{Steel, 609.6, "NPS 24", 24},     // 24 in, under the tabulated 610
+		{Steel, 76.1, "DN65", 2.5},       // ISO 4200 DN 65 (ASME NPS 2-1/2 is 73.0)
+		{Steel, 139.7, "DN125", 5},       // ISO 4200 DN 125 (ASME NPS 5 is 141.3)
+		{Steel, 70, "", 0},               // between sizes
+		{Steel, math.NaN(), "", 0},
 	}
 	for _, c := range cases {
-		got, ok := NominalAtOrBelowOD(c.od)
-		if got != c.want || ok != c.ok {
-			t.Errorf("NominalAtOrBelowOD(%g) = %g, %v; want %g, %v", c.od, got, ok, c.want, c.ok)
+		got, nominal, ok := SizeForOD(c.kind, c.od)
+		if got != c.want || nominal != c.nominal || ok != (c.want != "") {
+			t.Errorf("SizeForOD(%s, %g) = %q, %g, %v; want %q, %g", c.kind, c.od, got, nominal, ok, c.want, c.nominal)
 		}
 	}
 }

@@ -153,6 +153,9 @@ func buildResults(eff analysis.Input, st analysis.Stored, sys units.System, name
 		}
 		v.Sizing = append(v.Sizing, r)
 	}
+	if sz.Governing != nil && sz.GoverningThicknessMM == nil { // an unmet requirement governs
+		v.Governing = lineCriterionLabel(*sz.Governing) + ": no available build meets it (see the warnings)"
+	}
 	if sz.Governing != nil && sz.GoverningThicknessMM != nil {
 		v.Governing = lineCriterionLabel(*sz.Governing) + ": " + f(units.Length, *sz.GoverningThicknessMM)
 		var plan []string

@@ -1,21 +1,22 @@
 package handlers
 
 import (
-	"math"
+	"slices"
 
 	"lagwright/analysis"
 	"lagwright/web"
 )
 
-// Status flags of a line, derived from its stored analysis. A line may carry several;
-// with none it meets every criterion it is judged by.
+// Status flags of a line, read from the checks of its stored analysis (each active
+// criterion judged on the build as specified). A line may carry several; with none it
+// passes every check it is judged by.
 const (
-	StatusOK         = "ok"         // meets all criteria
-	StatusTooHot     = "too_hot"    // too hot to touch
-	StatusCondenses  = "condenses"  // condensation risk
-	StatusBelowCode  = "below_code" // below the energy-code minimum
-	StatusThin       = "thin"       // thinner than another criterion needs
-	StatusUnmet      = "unmet"      // no available thickness meets a criterion
+	StatusOK         = "ok"         // passes every check
+	StatusTooHot     = "too_hot"    // fails the personnel-protection check
+	StatusCondenses  = "condenses"  // fails the condensation check
+	StatusBelowCode  = "below_code" // fails the energy-code check
+	StatusFails      = "fails"      // fails another check (heat flow, temperature change, freeze, jacket or service limit)
+	StatusUnmet      = "unmet"      // no available build meets a criterion
 	StatusInputIssue = "input"      // the line's input has a problem: nothing computed
 )
 
@@ -24,78 +25,55 @@ var statusLabels = map[string]string{
 	StatusTooHot:     "Too hot to touch",
 	StatusCondenses:  "Condensation risk",
 	StatusBelowCode:  "Below code minimum",
-	StatusThin:       "Thinner than sized",
+	StatusFails:      "Fails a check",
 	StatusUnmet:      "No available thickness meets a criterion",
 	StatusInputIssue: "Input problem",
 }
 
 var statusClass = map[string]string{
 	StatusOK: "ok", StatusTooHot: "bad", StatusCondenses: "bad", StatusBelowCode: "warn",
-	StatusThin: "warn", StatusUnmet: "warn", StatusInputIssue: "bad",
+	StatusFails: "warn", StatusUnmet: "warn", StatusInputIssue: "bad",
 }
 
 // statusRank orders lines by their worst flag (sorting by status).
 var statusRank = map[string]int{StatusInputIssue: 0, StatusTooHot: 1, StatusCondenses: 2, StatusBelowCode: 3,
-	StatusUnmet: 4, StatusThin: 5, StatusOK: 6}
+	StatusUnmet: 4, StatusFails: 5, StatusOK: 6}
 
-// lineStatus judges a line from its stored answer and its effective input:
-//   - too hot to touch: the hottest surface (any duct face) above the touch limit at the
-//     design conditions, or personnel protection governing a thickness above the one
-//     specified (it is judged at its own, hotter conditions);
-//   - condensation risk: the condensation margin below the dew margin, or condensation
-//     control needing more than is specified;
-//   - below code minimum: an energy-code row that is required and fails;
-//   - thinner than sized: another criterion needs more than the specified outer layer;
+// lineStatus judges a line from the checks of its stored answer (analysis.Output.Checks),
+// never from sizing: a build that passes its checks is not flagged for being thinner than
+// some series value.
+//   - too hot to touch: the personnel-protection check fails;
+//   - condensation risk: the condensation check fails;
+//   - below code minimum: the energy-code check fails;
+//   - fails a check: any other check fails;
 //   - no available thickness: sizing names an unmet criterion;
 //   - input problem: the analysis stopped on field errors.
-func lineStatus(eff analysis.Input, st analysis.Stored) []string {
+func lineStatus(_ analysis.Input, st analysis.Stored) []string {
 	if len(st.Errors) > 0 || st.Output == nil {
 		return []string{StatusInputIssue}
 	}
-	o := st.Output
-	limit, margin := 60.0, 1.0
-	if c := eff.Criteria; c != nil {
-		if c.MaxSurfaceTempC != nil {
-			limit = *c.MaxSurfaceTempC
-		}
-		if c.DewMarginK != nil {
-			margin = *c.DewMarginK
-		}
-	}
-	personnelOn := eff.Criteria == nil || eff.Criteria.PersonnelProtection == nil || *eff.Criteria.PersonnelProtection
-	specified := 0.0
-	if n := len(eff.Layers); n > 0 && eff.Layers[n-1].ThicknessMM != nil {
-		specified = *eff.Layers[n-1].ThicknessMM
-	}
-	needs := func(p *float64) bool { return p != nil && *p > specified+1e-6 }
 	var out []string
 	add := func(s string) {
-		for _, x := range out {
-			if x == s {
-				return
-			}
+		if !slices.Contains(out, s) {
+			out = append(out, s)
 		}
-		out = append(out, s)
 	}
-	hottest := o.SurfaceTempC
-	for _, f := range o.Faces {
-		hottest = math.Max(hottest, f.SurfaceTempC)
+	for _, c := range st.Output.Checks {
+		if c.Pass {
+			continue
+		}
+		switch c.Criterion {
+		case "personnel_protection":
+			add(StatusTooHot)
+		case "condensation":
+			add(StatusCondenses)
+		case "energy_code":
+			add(StatusBelowCode)
+		default:
+			add(StatusFails)
+		}
 	}
-	sz := o.Sizing
-	if personnelOn && (hottest > limit || needs(sz.PersonnelProtectionMM)) {
-		add(StatusTooHot)
-	}
-	if (o.CondensationMarginK != nil && *o.CondensationMarginK < margin) || needs(sz.CondensationMM) {
-		add(StatusCondenses)
-	}
-	if ec := o.EnergyCode; ec != nil && ec.Required && !ec.Pass {
-		add(StatusBelowCode)
-	}
-	if needs(sz.MaxHeatFlowMM) || needs(sz.MaxTempChangeMM) || needs(sz.FreezeMM) ||
-		(sz.Governing != nil && *sz.Governing == "economic" && needs(sz.EconomicMM)) {
-		add(StatusThin)
-	}
-	if len(sz.Unmet) > 0 {
+	if len(st.Output.Sizing.Unmet) > 0 {
 		add(StatusUnmet)
 	}
 	if len(out) == 0 {

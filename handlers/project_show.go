@@ -180,9 +180,12 @@ func buildListRow(pid int64, lv results.Line, sys units.System, names nameLookup
 		st := o.SurfaceTempC
 		v.Surface, r.num["surface"] = units.Format(units.Temp, sys, st), &st
 		v.Margin, r.num["margin"] = fmtOpt(units.TempDiff, sys, o.CondensationMarginK), o.CondensationMarginK
-		if g := o.Sizing.Governing; g != nil && o.Sizing.GoverningThicknessMM != nil {
+		if g := o.Sizing.Governing; g != nil {
 			v.Governing = lineCriterionLabel(*g)
-			v.GovThick = units.FormatUnit(units.Length, sys, thicknessMM(sys, *o.Sizing.GoverningThicknessMM))
+			v.GovThick = "none available" // an unmet requirement governs
+			if t := o.Sizing.GoverningThicknessMM; t != nil {
+				v.GovThick = units.FormatUnit(units.Length, sys, thicknessMM(sys, *t))
+			}
 			r.str["governing"] = lineCriterionLabel(*g)
 		}
 	}
@@ -399,7 +402,7 @@ func (s *Server) projectTable(ctx context.Context, p store.Project, set analysis
 		h.Href = fmt.Sprintf("/projects/%d?sort=%s", p.ID, next)
 		v.Columns = append(v.Columns, h)
 	}
-	for _, k := range []string{StatusTooHot, StatusCondenses, StatusBelowCode, StatusThin, StatusUnmet, StatusInputIssue, StatusOK} {
+	for _, k := range []string{StatusTooHot, StatusCondenses, StatusBelowCode, StatusFails, StatusUnmet, StatusInputIssue, StatusOK} {
 		if counts[k] > 0 {
 			v.Summary = append(v.Summary, web.StatusCount{Flag: statusFlags([]string{k})[0], Count: counts[k]})
 		}

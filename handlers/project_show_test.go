@@ -34,16 +34,16 @@ func TestLineThicknessText(t *testing.T) {
 }
 
 // TestLineSortByStatus: sorting by status orders lines by their worst flag, the most
-// severe first (input problem, too hot, condensation, below code, unmet, thin, ok).
+// severe first (input problem, too hot, condensation, below code, unmet, fails a check, ok).
 func TestLineSortByStatus(t *testing.T) {
 	rows := []listRow{}
-	for _, keys := range [][]string{{StatusOK}, {StatusThin}, {StatusBelowCode, StatusThin}, {StatusInputIssue}, {StatusOK, StatusTooHot}, {StatusCondenses}} {
+	for _, keys := range [][]string{{StatusOK}, {StatusFails}, {StatusBelowCode, StatusFails}, {StatusInputIssue}, {StatusOK, StatusTooHot}, {StatusCondenses}} {
 		rank := float64(worstRank(keys))
 		rows = append(rows, listRow{view: web.LineRow{Tag: keys[len(keys)-1]}, num: map[string]*float64{"status": &rank}, str: map[string]string{}})
 	}
 	for _, c := range []struct{ key, want string }{
-		{"status", "input too_hot condenses thin thin ok"},
-		{"-status", "ok thin thin condenses too_hot input"},
+		{"status", "input too_hot condenses fails fails ok"},
+		{"-status", "ok fails fails condenses too_hot input"},
 	} {
 		sortLineRows(rows, c.key)
 		var got []string

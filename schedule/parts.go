@@ -83,6 +83,7 @@ var resultParts = []resultPart{
 	}},
 	{[]string{"output", "sizing", "governing_thickness_mm"}, optFloatPart(func(o *analysis.Output) **float64 { return &o.Sizing.GoverningThicknessMM })},
 	{[]string{"output", "sizing", "unmet"}, jsonPart(func(o *analysis.Output) any { return &o.Sizing.Unmet })},
+	{[]string{"output", "checks"}, jsonPart(func(o *analysis.Output) any { return &o.Checks })},
 	// An energy-code row always has both; both are nil when the row is null.
 	{[]string{"output", "energy_code", "required"}, func(_ *analysis.Stored, o *analysis.Output, v []byte) error {
 		if o.EnergyCode == nil {

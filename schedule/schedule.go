@@ -378,8 +378,10 @@ func buildRow(l Line, r Resolver) Row {
 		row.JacketAreaM2 = ptr(*in.AreaM2 * (1 + LapWaste))
 		row.VolumeM3 = ptr(*in.AreaM2 * t)
 	}
-	if gov := o.Sizing.GoverningThicknessMM; gov != nil && *gov > o.InsulationMM+0.05 && len(in.Layers) > 0 {
-		notes = append(notes, "sizing proposes a thicker sized layer ("+criterionName(deref(o.Sizing.Governing))+")")
+	for _, c := range o.Checks { // the build as specified, never "thinner than the series"
+		if !c.Pass {
+			notes = append(notes, "fails "+criterionName(c.Criterion))
+		}
 	}
 	for _, u := range o.Sizing.Unmet {
 		notes = append(notes, "no available thickness meets "+criterionName(u))
@@ -392,13 +394,6 @@ func buildRow(l Line, r Resolver) Row {
 	}
 	row.Notes = strings.Join(notes, "; ")
 	return row
-}
-
-func deref(s *string) string {
-	if s == nil {
-		return ""
-	}
-	return *s
 }
 
 // purpose derives why the line is insulated: the governing criterion where it is
@@ -453,6 +448,10 @@ func criterionName(k string) string {
 		return "energy code"
 	case "economic":
 		return "economic thickness"
+	case "jacket_max_temp":
+		return "the jacket's temperature limit"
+	case "service_temp":
+		return "a material's service temperature range"
 	}
 	return strings.ReplaceAll(k, "_", " ")
 }

@@ -58,6 +58,23 @@ func (f fmtr) p(q units.Quantity, v *float64) string {
 	return f.q(q, *v)
 }
 
+// check writes a check's value in the sheet's units where the unit is one of them.
+func (f fmtr) check(v float64, unit string) string {
+	switch unit {
+	case "°C":
+		return f.q(units.Temp, v)
+	case "K":
+		return f.q(units.TempDiff, v)
+	case "mm":
+		return f.q(units.Length, v)
+	case "W/m":
+		return f.q(units.HeatFlowPerLength, v)
+	case "W/m²":
+		return f.q(units.HeatFlux, v)
+	}
+	return strconv.FormatFloat(v, 'f', -1, 64) + " " + unit
+}
+
 func num(v *float64, suffix string) string {
 	if v == nil {
 		return ""
@@ -249,6 +266,18 @@ func BuildSheet(p Project, l Line, r Resolver, date time.Time) Sheet {
 	res.add("Time to freeze (stagnant)", num(o.FreezeHoursToFreeze, " h"))
 	res.add("Heat tracing needed", f.p(units.HeatFlowPerLength, o.HeatTraceWPerM))
 
+	chk := Section{Title: "Checks of the build as specified"}
+	for _, c := range o.Checks {
+		verdict, rel := "passes", "at most "
+		if !c.Pass {
+			verdict = "fails"
+		}
+		if c.Sense == "min" {
+			rel = "at least "
+		}
+		chk.add(strings.ToUpper(c.Label[:1])+c.Label[1:], verdict+": "+f.check(c.Value, c.Unit)+", "+rel+f.check(c.Limit, c.Unit))
+	}
+
 	siz := Section{Title: "Sizing: thinnest available thickness per criterion"}
 	crit := func(label string, v *float64) {
 		if v != nil {
@@ -263,7 +292,11 @@ func BuildSheet(p Project, l Line, r Resolver, date time.Time) Sheet {
 	crit("Energy code", o.Sizing.EnergyCodeMM)
 	crit("Economic thickness", o.Sizing.EconomicMM)
 	if o.Sizing.Governing != nil {
-		siz.add("Governing", criterionName(*o.Sizing.Governing)+", "+f.p(units.Length, o.Sizing.GoverningThicknessMM))
+		gov := "no available build meets it"
+		if o.Sizing.GoverningThicknessMM != nil {
+			gov = f.p(units.Length, o.Sizing.GoverningThicknessMM)
+		}
+		siz.add("Governing", criterionName(*o.Sizing.Governing)+", "+gov)
 	}
 	if len(o.Sizing.LayersProposed) > 0 {
 		var t []float64
@@ -305,7 +338,7 @@ func BuildSheet(p Project, l Line, r Resolver, date time.Time) Sheet {
 	} else {
 		comp.add("Result", "not checked (no energy-code table selected for this line)")
 	}
-	sh.Sections = append(sh.Sections, cond, surf, res)
+	sh.Sections = append(sh.Sections, cond, surf, res, chk)
 	if fs := f.fittingsSection(o); len(fs.Rows) > 0 {
 		sh.Sections = append(sh.Sections, fs)
 	}

@@ -46,6 +46,10 @@ func scanJacket(row pgx.CollectableRow) (Jacket, error) {
 	var j Jacket
 	err := row.Scan(&j.Slug, &j.Name, &j.Emittance, &j.VapourRetarder, &j.PermeancePerm, &j.Use, &j.Source,
 		&j.Builtin, &j.Version, &j.UpdatedAt)
+	if c, ok := catalog.JacketBySlug(j.Slug); ok && j.Builtin { // catalog data, not stored (see Library)
+		j.SolarAbsorptance, j.AbsorptanceSource = c.SolarAbsorptance, c.AbsorptanceSource
+		j.MaxSurfaceC, j.MaxSurfaceSource = c.MaxSurfaceC, c.MaxSurfaceSource
+	}
 	return j, err
 }
 

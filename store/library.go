@@ -168,6 +168,10 @@ func (s *Store) Library(ctx context.Context) (*Library, error) {
 		}
 		if c, ok := catalog.MaterialBySlug(m.Slug); ok && lm.builtin {
 			m.Form = c.Form // the form (pipe section, board …) is display data, not stored
+			// The metric series is catalog data, not stored: a built-in's comes from the
+			// build (a change to it changes the method version); custom materials have
+			// none and are proposed from their inch series rounded to 5 mm.
+			m.ThicknessesMetricMM = c.ThicknessesMetricMM
 		}
 		lm.m = m
 		lib.materials[m.Slug] = lm
@@ -187,6 +191,12 @@ func (s *Store) Library(ctx context.Context) (*Library, error) {
 		if err := rows.Scan(&j.Slug, &j.Name, &j.Emittance, &j.VapourRetarder, &j.PermeancePerm, &j.Use, &j.Source,
 			&lj.builtin, &lj.version); err != nil {
 			return nil, fmt.Errorf("store: library: %w", err)
+		}
+		if c, ok := catalog.JacketBySlug(j.Slug); ok && lj.builtin {
+			// Catalog data, not stored (as a material's form and metric series): a
+			// built-in jacket's solar absorptance and surface limit come from the build.
+			j.SolarAbsorptance, j.AbsorptanceSource = c.SolarAbsorptance, c.AbsorptanceSource
+			j.MaxSurfaceC, j.MaxSurfaceSource = c.MaxSurfaceC, c.MaxSurfaceSource
 		}
 		lj.j = j
 		lib.jackets[j.Slug] = lj

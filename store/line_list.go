@@ -26,7 +26,7 @@ type ListLine struct {
 	ResultKey  string // see SaveResultKeys; '' when never checked
 	// Summary is shaped like the stored result (analysis.Stored JSON) but holds only
 	// "errors" and, under "output", the operating temperature, heat flows, surface
-	// temperatures (with the duct faces), condensation margin, the sizing's per-criterion
+	// temperatures (with the duct faces), condensation margin, the checks (migration 0010), the sizing's per-criterion
 	// thicknesses, governing criterion and unmet criteria, and the energy-code row's
 	// "required" and "pass". nil when no result is stored.
 	Summary []byte

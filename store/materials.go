@@ -199,6 +199,7 @@ func scanMaterial(row pgx.CollectableRow) (Material, error) {
 	}
 	if c, ok := catalog.MaterialBySlug(m.Slug); ok && m.Builtin {
 		m.Form = c.Form
+		m.ThicknessesMetricMM = c.ThicknessesMetricMM // catalog data, not stored (see Library)
 	}
 	return m, nil
 }
