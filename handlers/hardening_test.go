@@ -15,7 +15,8 @@ import (
 )
 
 // TestVersionsOutOfRange: versions and revision numbers are 32-bit integers in the
-// database; null, text, 0 or 2147483648 are refused with 422 naming the field (or
+// database (PostgreSQL "integer", −2147483648 to +2147483647: PostgreSQL manual,
+// Numeric Types); null, text, 0 or 2147483648 are refused with 422 naming the field (or
 // answered 404/409), never a 500 or a panic.
 func TestVersionsOutOfRange(t *testing.T) {
 	st := storetest.NewDB(t)
@@ -81,7 +82,8 @@ func TestIDsCanonical(t *testing.T) {
 	}
 }
 
-// TestHead: HEAD answers like GET without a body, on health checks and pages.
+// TestHead: HEAD answers like GET without a body, on health checks and pages
+// (RFC 9110 §9.3.2: the same header fields as GET, no content).
 func TestHead(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
@@ -102,8 +104,9 @@ func TestHead(t *testing.T) {
 }
 
 // TestSlowBody: a body that arrives too slowly for the server's read timeout is the
-// client's fault (408), not "the database is not answering"; one that breaks off is
-// 400.
+// client's fault (408 Request Timeout, RFC 9110 §15.5.9: the server did not receive a
+// complete request in time), not "the database is not answering"; one that breaks off
+// is 400.
 func TestSlowBody(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, logs := newServer(t, st)
