@@ -479,7 +479,7 @@ func (a *analyser) energyCode(cands []float64) error {
 		l.assumeText(words{buf[:0]}.s("energy code: k ").f(kBtu, 3).s(" Btu·in/h·ft²·°F at ").f(row.MeanRatingF, 0).
 			s(" °F lies outside the row's ").f(row.KMin, 2).s("–").f(row.KMax, 2).
 			s(", so the table thickness is corrected by T = r[(1 + t/r)^(K/k) − 1] with k = ").f(ref, 2).
-			s(" (the ").s(t.RefEnd).s(" end)").String())
+			s(" (the ").s(t.RefEnd).s(" end of the row's range)").String())
 	}
 	if len(l.base.Layers) > 1 {
 		l.assume("energy code: the total insulation thickness is compared, with the outermost layer's conductivity")

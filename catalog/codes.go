@@ -119,9 +119,9 @@ var codeTables = []CodeTable{
 		},
 		RefEnd: "upper",
 		Source: "ASHRAE 90.1-2016 Tables 6.8.3-1/-2, reproduced from a secondary source — verify against the " +
-			"adopted code. RefEnd \"upper\" (k = upper end of the row's range) " + labelMemory + "; one state " +
-			"code uses the lower end. The 251–350 °F row's k range is 0.29–0.31 in the source read and " +
-			"0.29–0.32 from memory. Rows are contiguous: each heating row's lower edge is exclusive of the " +
+			"adopted code. The thickness correction takes k at the upper end of the row's range, " + labelMemory +
+			"; one state code uses the lower end. The 251–350 °F row's k range is 0.29–0.31 in the source read " +
+			"and 0.29–0.32 as recalled. Rows are contiguous: each heating row's lower edge is exclusive of the " +
 			"previous row's upper edge; no requirement between 60 and 105 °F. Footnotes (reductions in " +
 			"partitions within conditioned space and for direct-buried piping) not reproduced",
 	},

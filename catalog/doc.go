@@ -5,7 +5,7 @@
 //
 // Every entry names its source in a Source field, as a reader cites it (docs/references.md):
 // a value read in a published source cites that source; "common practice" marks trade
-// conventions; "from memory — verify" marks values recalled but not checked against the
+// conventions; "as recalled, check before use" marks values recalled but not checked against the
 // named standard. Values from memory must be verified before they are relied on; every one
 // of them is editable in the application (custom materials, surface emittance, …).
 //
@@ -34,6 +34,6 @@ func in2mm(in float64) float64 { return in * MMPerInch }
 
 // Source labels used throughout the package.
 const (
-	labelMemory = "from memory — verify"
+	labelMemory = "as recalled, check before use"
 	labelCommon = "common practice"
 )

@@ -191,7 +191,7 @@ func BuildSheet(p Project, l Line, r Resolver, date time.Time) Sheet {
 		inp.add("Freeze protection time", num(c.FreezeHours, " h"))
 		inp.add("Freeze basis", c.FreezeBasis)
 		inp.add("Heat tracing maintains", f.p(units.Temp, c.MaintainTempC))
-		inp.add("Energy code table", c.EnergyCode)
+		inp.add("Energy code table", codeTableName(c.EnergyCode))
 	}
 	if e := in.Economics; e != nil {
 		cur := " " + e.CurrencyCode()
@@ -471,4 +471,13 @@ func (f fmtr) fittingsSection(o *analysis.Output) Section {
 		}
 	}
 	return sec
+}
+
+// codeTableName is an energy-code table as a reader cites it ("ASHRAE/IES Standard 90.1
+// minimum pipe insulation thickness (90.1-2016)"), not its identifier.
+func codeTableName(id string) string {
+	if t, ok := catalog.CodeTableByID(id); ok {
+		return t.Title()
+	}
+	return id
 }
