@@ -94,7 +94,7 @@ func TestSteelSch80_FromMemory(t *testing.T) {
 		if w <= p.WallMM["40"] {
 			t.Errorf("%s: Sch 80 wall %g not thicker than Sch 40 %g", c.desig, w, p.WallMM["40"])
 		}
-		if !strings.Contains(p.Source, "memory") {
+		if !strings.Contains(p.Source, "as recalled") {
 			t.Errorf("%s: source %q does not mark Sch 80 as from memory", c.desig, p.Source)
 		}
 	}

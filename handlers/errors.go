@@ -157,6 +157,12 @@ func (s *Server) fail(w http.ResponseWriter, r *http.Request, err error) {
 	case CodeInternal:
 		s.log.ErrorContext(r.Context(), "internal error", "method", r.Method, "path", r.URL.Path, "err", err)
 	case CodeUnavailable:
+		if r.Context().Err() != nil {
+			// The browser gave up on the request (a newer keystroke replaced a live
+			// calculation): the query was cancelled on purpose, the database is fine.
+			s.log.DebugContext(r.Context(), "request cancelled by the client", "method", r.Method, "path", r.URL.Path, "err", err)
+			break
+		}
 		s.log.WarnContext(r.Context(), "unavailable", "method", r.Method, "path", r.URL.Path, "err", err)
 	}
 	if wantsJSON(r) {

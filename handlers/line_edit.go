@@ -80,7 +80,8 @@ func (s *Server) lineView(c *lineCtx, st *formState, res web.LineResults) web.Li
 	}
 	v := web.LineFormView{Assets: s.assets.urls, Title: title, ProjectName: c.p.Name, ProjectURL: c.projectURL(),
 		Action: c.lineURL(), ResultsURL: c.resultsURL(), EntryForm: st.view(), LayerRows: layerRows(st), Results: res,
-		Units: map[string]string{"layers.thickness_mm": units.Label(units.Length, c.sys)}}
+		Units: map[string]string{"layers.thickness_mm": units.Label(units.Length, c.sys),
+			"height_default": units.FormatUnit(units.LongLength, c.sys, 3)}}
 	if c.line.ID != 0 {
 		v.SavedURL = c.lineURL()
 	}

@@ -307,6 +307,10 @@ func readNum(r *http.Request, f numField, sys units.System, st *formState) (any,
 		st.addError(f.Key, err.Error())
 		return nil, false
 	}
+	if exact, ok := f.exact(r.PostForm.Get(exactKey(f.Key)), sys, raw); ok {
+		st.Values.Set(exactKey(f.Key), r.PostForm.Get(exactKey(f.Key)))
+		return exact, true
+	}
 	return v, true
 }
 
@@ -390,6 +394,10 @@ func readLayers(r *http.Request, sys units.System, st *formState) []analysis.Lay
 		} else {
 			t := formRoundSig(v)
 			layer.ThicknessMM = &t
+			if exact, ok := (numField{Q: units.Length}).exact(pf.Get(exactKey(tk)), sys, th); ok {
+				t = exact.(float64)
+				st.Values.Set(exactKey(tk), pf.Get(exactKey(tk)))
+			}
 		}
 		if idx := len(layers); idx != i { // analysis numbers the layers it got; the form numbers its rows
 			st.layerRow = append(st.layerRow, [2]int{idx, i})
@@ -477,7 +485,7 @@ func lineFormValues(l store.Line, in analysis.Input, fit analysis.Fittings, sys 
 	shown := in // the accessors allocate parents: read from a copy
 	for _, n := range lineNums {
 		if p := *n.at(&shown); p != nil {
-			st.Values.Set(n.Key, n.format(sys, *p))
+			setShown(st, n.numField, sys, *p)
 		}
 	}
 	for _, n := range fittingCounts {
@@ -493,7 +501,9 @@ func lineFormValues(l store.Line, in analysis.Input, fit analysis.Fittings, sys 
 	for i, layer := range in.Layers {
 		st.Values.Set(fmt.Sprintf("layers[%d].material", i), layer.Material)
 		if layer.ThicknessMM != nil {
-			st.Values.Set(fmt.Sprintf("layers[%d].thickness_mm", i), numField{Q: units.Length}.format(sys, *layer.ThicknessMM))
+			tk := fmt.Sprintf("layers[%d].thickness_mm", i)
+			writeNums(map[string]any{fmt.Sprintf("layers[%d]", i): map[string]any{"thickness_mm": *layer.ThicknessMM}},
+				[]numField{{Key: tk, Q: units.Length}}, sys, st)
 		}
 	}
 	return st
@@ -516,7 +526,7 @@ func layerRows(st *formState) int {
 func pipeSizeOptions(sys units.System, current string) []web.Choice {
 	var nps, dn, cts []web.Choice
 	for _, p := range catalog.PipeSizes() {
-		od := units.FormatUnit(units.Length, sys, p.ODmm)
+		od := units.FormatOD(sys, p.ODmm)
 		if p.Kind == catalog.Copper {
 			cts = append(cts, web.Choice{Value: p.Designation, Label: p.Designation + " (OD " + od + ")", Group: "Copper tube (CTS)"})
 			continue

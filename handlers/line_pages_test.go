@@ -7,6 +7,7 @@ import (
 	"math"
 	"net/http"
 	"net/url"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -322,13 +323,24 @@ func TestFormUnitParsing(t *testing.T) {
 			if !ptNear(got, c.want, 1e-6*math.Max(1, math.Abs(c.want))) {
 				t.Errorf("parse(%q) = %.9g, want %.9g", c.in, got, c.want)
 			}
-			// What the form shows for the stored value reads back to the same value.
-			back, err := c.f.parse(c.sys, c.f.format(c.sys, got))
+			// What the form shows for the stored value reads back: near it on its own
+			// (rounded for reading), exactly with the hidden exact value beside it.
+			shown := c.f.format(c.sys, got)
+			back, err := c.f.parse(c.sys, shown)
 			if err != nil {
 				t.Fatalf("format(%g) does not read back: %v", got, err)
 			}
-			if bf, ok := back.(float64); ok && !ptNear(bf, got, 1e-9*math.Max(1, math.Abs(got))) {
-				t.Errorf("format/parse round trip %.12g → %q → %.12g", got, c.f.format(c.sys, got), bf)
+			if bf, ok := back.(float64); ok && !ptNear(bf, got, 5e-3*math.Max(1, math.Abs(got))) {
+				t.Errorf("format/parse round trip %.12g → %q → %.12g", got, shown, bf)
+			}
+			if _, isInt := back.(int); !isInt {
+				exact, ok := c.f.exact(strconv.FormatFloat(got, 'g', -1, 64), c.sys, shown)
+				if bf, _ := exact.(float64); !ok || bf != got {
+					t.Errorf("exact round trip %.12g → %q → %v, %v", got, shown, exact, ok)
+				}
+				if _, ok := c.f.exact(strconv.FormatFloat(got, 'g', -1, 64), c.sys, shown+"1"); ok {
+					t.Errorf("a changed field %q kept the exact value %g", shown+"1", got)
+				}
 			}
 		})
 	}

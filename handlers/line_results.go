@@ -86,7 +86,11 @@ func buildResults(eff analysis.Input, st analysis.Stored, sys units.System, name
 		}
 		row("dew-point", strings.ToUpper(kind[:1])+kind[1:], f(units.Temp, *o.DewPointC))
 	}
-	row("margin", "Condensation margin", fp(units.TempDiff, o.CondensationMarginK))
+	if m := dewMargin(o); m != nil {
+		row("margin", "Condensation margin", fp(units.TempDiff, m))
+	} else if o.CondensationMarginK != nil {
+		row("margin", "Condensation margin", "— (hot line, surface above the dew point)")
+	}
 	row("outlet", "Outlet temperature", fp(units.Temp, o.OutletTempC))
 	row("temp-change", "Temperature change", fp(units.TempDiff, o.TempChangeK))
 	row("steam-sat", "Steam saturation temperature", fp(units.Temp, o.SteamSatTempC))
@@ -107,7 +111,7 @@ func buildResults(eff analysis.Input, st analysis.Stored, sys units.System, name
 		}
 		return fmt.Sprintf("%.1f h", *p)
 	}
-	row("freeze-0c", "Still water reaches 0 °C in", hours(o.FreezeHoursTo0C))
+	row("freeze-0c", "Still water reaches "+units.FormatUnit(units.Temp, sys, 0)+" in", hours(o.FreezeHoursTo0C))
 	row("freeze-frac", "Freezes (fraction) in", hours(o.FreezeHoursToFreeze))
 	row("heat-trace", "Heat tracing needed", fp(units.HeatFlowPerLength, o.HeatTraceWPerM))
 
@@ -167,8 +171,11 @@ func buildResults(eff analysis.Input, st analysis.Stored, sys units.System, name
 		}
 	}
 	if ec := o.EnergyCode; ec != nil {
-		e := &web.EnergyCodeResult{Table: ec.Table + " (" + ec.Edition + ")", Row: ec.Row, Column: ec.Column,
+		e := &web.EnergyCodeResult{Table: ec.Table + " (" + ec.Edition + ")", Row: codeRowIn(sys, ec.Row), Column: ec.Column,
 			Specified: f(units.Length, ec.SpecifiedMM), Required: ec.Required, Pass: ec.Pass, NotCovered: ec.Reason}
+		if ec.Column != "" {
+			e.Column = "NPS " + ec.Column
+		}
 		if ec.TableThicknessMM != nil {
 			e.TableThickness = f(units.Length, *ec.TableThicknessMM)
 		}

@@ -96,3 +96,28 @@ func roundTrim(v float64, decimals int) string {
 	}
 	return s
 }
+
+// codeRowF finds the °F temperatures of an energy-code row label ("cooling 40–60 °F",
+// "heating >350 °F", "cooling <40 °F").
+var codeRowF = regexp.MustCompile(`([<>≤≥]?)(-?\d+(?:\.\d+)?)(?:–(-?\d+(?:\.\d+)?))? °F`)
+
+// codeRowIn writes an energy-code row (the tables are in °F) in the project's units: an SI
+// project reads "cooling 4.4–15.6 °C (table row 40–60 °F)"; a US one reads it as printed.
+func codeRowIn(sys units.System, row string) string {
+	if sys == units.US {
+		return row
+	}
+	m := codeRowF.FindStringSubmatchIndex(row)
+	if m == nil {
+		return row
+	}
+	c := func(f string) string {
+		v, _ := strconv.ParseFloat(f, 64)
+		return units.Format(units.Temp, units.SI, (v-32)*5/9)
+	}
+	si := row[m[2]:m[3]] + c(row[m[4]:m[5]])
+	if m[6] >= 0 {
+		si += "–" + c(row[m[6]:m[7]])
+	}
+	return row[:m[0]] + si + " °C (table row " + row[m[0]:m[1]] + ")" + row[m[1]:]
+}

@@ -61,3 +61,21 @@ func TestWithUSValues(t *testing.T) {
 		})
 	}
 }
+
+// TestCodeRowIn: an SI project reads the energy-code row in °C, with the table's °F row
+// beside it (ASHRAE 90.1-2016 Table 6.8.3-2 prints its rows in °F; °C = (°F − 32)·5/9).
+func TestCodeRowIn(t *testing.T) {
+	for _, c := range []struct {
+		sys       units.System
+		row, want string
+	}{
+		{units.SI, "cooling 40–60 °F", "cooling 4.4–15.6 °C (table row 40–60 °F)"},
+		{units.SI, "cooling <40 °F", "cooling <4.4 °C (table row <40 °F)"},
+		{units.SI, "heating >350 °F", "heating >176.7 °C (table row >350 °F)"},
+		{units.US, "cooling 40–60 °F", "cooling 40–60 °F"},
+	} {
+		if got := codeRowIn(c.sys, c.row); got != c.want {
+			t.Errorf("codeRowIn(%s, %q) = %q, want %q", c.sys, c.row, got, c.want)
+		}
+	}
+}

@@ -87,8 +87,10 @@ func (f numField) parse(sys units.System, raw string) (any, error) {
 	return formRoundSig(v), nil
 }
 
-// format writes an SI value the way the form shows it: in the system's unit, exact
-// enough that saving the form unchanged stores the same value.
+// format writes an SI value the way the form shows it: in the system's unit, rounded
+// for reading ("7.61" mph, not "7.605583393"). Saving the form unchanged still stores
+// the same value: writeNums keeps the exact value beside it (exactKey) and readNums
+// takes it back while the field still shows its rounding.
 func (f numField) format(sys units.System, v float64) string {
 	switch {
 	case f.Int:
@@ -97,7 +99,7 @@ func (f numField) format(sys units.System, v float64) string {
 		if sys == units.US {
 			v /= specificHeatUS
 		}
-		return formPlain(v)
+		return formPlain(float64(float32(v))) // 4186 J/(kg·K) = 0.99989 Btu/(lb·°F): 7 digits are plenty
 	case f.Q > 0:
 		if f.Q == units.Length && sys == units.US {
 			if s := units.Format(f.Q, sys, v); s != "" {
@@ -106,7 +108,7 @@ func (f numField) format(sys units.System, v float64) string {
 				}
 			}
 		}
-		return formPlain(units.FromSI(f.Q, sys, v))
+		return units.FormatDisplay(f.Q, sys, v)
 	}
 	if f.Scale != 0 {
 		v /= f.Scale
@@ -185,15 +187,47 @@ func readNums(r *http.Request, fields []numField, sys units.System, st *formStat
 			st.addError(f.Key, err.Error())
 			continue
 		}
+		if exact, ok := f.exact(r.PostForm.Get(exactKey(f.Key)), sys, raw); ok {
+			v = exact
+			st.Values.Set(exactKey(f.Key), r.PostForm.Get(exactKey(f.Key)))
+		}
 		formSetPath(into, f.Key, v)
 	}
+}
+
+// exactKey names the hidden field that carries a rounded field's exact SI value.
+func exactKey(k string) string { return web.ExactKey(k) }
+
+// exact is the SI value of a hidden exact field while the shown field still reads as
+// its rounding (the user did not change it); ok is false otherwise.
+func (f numField) exact(hidden string, sys units.System, raw string) (any, bool) {
+	if hidden == "" || f.Int {
+		return nil, false
+	}
+	v, err := strconv.ParseFloat(hidden, 64)
+	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) || f.format(sys, v) != strings.TrimSpace(raw) {
+		return nil, false
+	}
+	return v, true
 }
 
 // writeNums fills form values from a JSON map (SI) in the system's units.
 func writeNums(from map[string]any, fields []numField, sys units.System, st *formState) {
 	for _, f := range fields {
 		if v, ok := formGetPath(from, f.Key).(float64); ok {
-			st.Values.Set(f.Key, f.format(sys, v))
+			setShown(st, f, sys, v)
+		}
+	}
+}
+
+// setShown puts an SI value on the form as shown (rounded for reading) and, where the
+// rounding does not read back to it, the exact value in the hidden field beside it.
+func setShown(st *formState, f numField, sys units.System, v float64) {
+	shown := f.format(sys, v)
+	st.Values.Set(f.Key, shown)
+	if !f.Int {
+		if back, err := f.parse(sys, shown); err != nil || back != v {
+			st.Values.Set(exactKey(f.Key), strconv.FormatFloat(v, 'g', -1, 64))
 		}
 	}
 }

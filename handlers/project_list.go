@@ -17,7 +17,7 @@ func (s *Server) projectList(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	v := web.ProjectListView{Assets: s.assets.urls}
+	v := web.ProjectListView{Assets: s.assets.urls, DemoLines: len(demo.Lines())}
 	for _, p := range list {
 		v.Projects = append(v.Projects, web.ProjectListItem{ID: p.ID, Name: p.Name, Client: p.Client, Site: p.Site,
 			Units: map[string]string{"si": "SI", "us": "US"}[p.Units], Lines: p.LineCount, Updated: p.UpdatedAt.Format("2006-01-02 15:04")})

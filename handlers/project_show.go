@@ -115,6 +115,16 @@ func fmtOpt(q units.Quantity, sys units.System, p *float64) string {
 	return units.Format(q, sys, *p)
 }
 
+// dewMargin is the margin to the dew point worth showing: none on a hot line whose
+// surface stays above the dew point (a figure there reads as a condensation check).
+func dewMargin(o *analysis.Output) *float64 {
+	m := o.CondensationMarginK
+	if m != nil && o.OperatingTempC > o.SurfaceTempC && *m >= 0 {
+		return nil
+	}
+	return m
+}
+
 // buildListRow turns a stored line into its row in the project's units.
 func buildListRow(pid int64, lv results.Line, sys units.System, names nameLookup) listRow {
 	in, o := lv.Effective, lv.Result.Output
@@ -179,7 +189,7 @@ func buildListRow(pid int64, lv results.Line, sys units.System, names nameLookup
 		v.QRun, r.num["qrun"] = fmtOpt(units.HeatFlow, sys, o.HeatFlowW), o.HeatFlowW
 		st := o.SurfaceTempC
 		v.Surface, r.num["surface"] = units.Format(units.Temp, sys, st), &st
-		v.Margin, r.num["margin"] = fmtOpt(units.TempDiff, sys, o.CondensationMarginK), o.CondensationMarginK
+		v.Margin, r.num["margin"] = fmtOpt(units.TempDiff, sys, dewMargin(o)), dewMargin(o)
 		if g := o.Sizing.Governing; g != nil {
 			v.Governing = lineCriterionLabel(*g)
 			v.GovThick = "none available" // an unmet requirement governs

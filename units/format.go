@@ -97,3 +97,38 @@ func noNegativeZero(s string) string {
 	}
 	return s
 }
+
+// FormatOD writes a pipe or tube outside diameter with its unit as the dimension tables
+// print it: inches to three decimals ("2.375 in", "1.900 in", ASME B36.10 and ASTM B88
+// style), millimetres to one ("60.3 mm", ISO 4200 / EN 10220 style).
+func FormatOD(sys System, mm float64) string {
+	if !finite(mm) {
+		return ""
+	}
+	if sys == US {
+		return fixed(mm/25.4, 3) + " " + Label(Length, sys)
+	}
+	return fixed(mm, 1) + " " + Label(Length, sys)
+}
+
+// FormatDisplay writes v (in SI) in sys for a person to read back and edit: 1 decimal
+// for temperatures and temperature differences, 3 significant digits otherwise, with
+// trailing zeros dropped ("75.2", "7.61", "1.97", "2"). Forms that must store exactly
+// what was saved pair it with the exact value (see handlers).
+func FormatDisplay(q Quantity, sys System, v float64) string {
+	if !finite(v) {
+		return ""
+	}
+	x := FromSI(q, sys, v)
+	var s string
+	switch q {
+	case Temp, TempDiff:
+		s = fixed(x, 1)
+	default:
+		s = significant(x, 3)
+	}
+	if strings.Contains(s, ".") {
+		s = strings.TrimRight(strings.TrimRight(s, "0"), ".")
+	}
+	return noNegativeZero(s)
+}

@@ -316,3 +316,49 @@ func FuzzParse(f *testing.F) {
 		}
 	})
 }
+
+// TestFormatOD: outside diameters as the dimension tables print them. Source: ASME
+// B36.10M, Table 1 (NPS 2 = 2.375 in, NPS 6 = 6.625 in, NPS 1-1/2 = 1.900 in, NPS 4 =
+// 4.500 in; DN 50 = 60.3 mm); ASTM B88 (CTS 1 = 1.125 in).
+func TestFormatOD(t *testing.T) {
+	for _, c := range []struct {
+		sys  System
+		mm   float64
+		want string
+	}{
+		{US, 2.375 * 25.4, "2.375 in"},
+		{US, 6.625 * 25.4, "6.625 in"},
+		{US, 1.9 * 25.4, "1.900 in"},
+		{US, 4.5 * 25.4, "4.500 in"},
+		{US, 1.125 * 25.4, "1.125 in"},
+		{SI, 2.375 * 25.4, "60.3 mm"},
+	} {
+		if got := FormatOD(c.sys, c.mm); got != c.want {
+			t.Errorf("FormatOD(%s, %g) = %q, want %q", c.sys, c.mm, got, c.want)
+		}
+	}
+}
+
+// TestFormatDisplay: converted defaults read as a person writes them. 3.4 m/s =
+// 7.6056 mph and 0.6 m = 1.9685 ft (exact factors, NIST SP 811); 24 °C = 75.2 °F.
+func TestFormatDisplay(t *testing.T) {
+	for _, c := range []struct {
+		q    Quantity
+		sys  System
+		v    float64
+		want string
+	}{
+		{Speed, US, 3.4, "7.61"},
+		{LongLength, US, 0.6, "1.97"},
+		{LongLength, US, 0.3048 * 2, "2"},
+		{Temp, US, 24, "75.2"},
+		{Temp, US, 0, "32"},
+		{Temp, SI, -0.01, "0"},
+		{Speed, SI, 3.4, "3.4"},
+		{HeatFlowPerLength, SI, 1234.6, "1235"},
+	} {
+		if got := FormatDisplay(c.q, c.sys, c.v); got != c.want {
+			t.Errorf("FormatDisplay(%v, %s, %g) = %q, want %q", c.q, c.sys, c.v, got, c.want)
+		}
+	}
+}

@@ -9,12 +9,16 @@ package web
 import "github.com/a-h/templ"
 import templruntime "github.com/a-h/templ/runtime"
 
+import "strconv"
+
 // HomeView is what the home page shows.
 type HomeView struct {
 	Assets  Assets
 	Version string
 	// DBReady reports whether the database answered when the page was built.
 	DBReady bool
+	// DemoLines is how many lines the demo project has.
+	DemoLines int
 }
 
 // Home is the landing page: what the tool does and the health of its database.
@@ -47,35 +51,48 @@ func Home(v HomeView) templ.Component {
 				}()
 			}
 			ctx = templ.InitializeContext(ctx)
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 1, "<h1>Insulation sizing for pipe and duct runs</h1><p>Lagwright sizes thermal insulation line by line for a whole project: heat loss or gain, surface temperature, condensation risk, personnel protection, energy-code minimums and energy payback, and an insulation schedule an estimator can price and a crew can install.</p><p>Results follow published methods (ASTM C680, ISO 12241, ASHRAE Fundamentals) and are stored and computed in SI; each project shows them in SI or US customary units.</p><h2>Status</h2>")
-			if templ_7745c5c3_Err != nil {
-				return templ_7745c5c3_Err
-			}
-			if v.DBReady {
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 2, "<p class=\"notice ok\" data-testid=\"db-status\">Database: <span class=\"status-ok\">ready</span></p>")
-				if templ_7745c5c3_Err != nil {
-					return templ_7745c5c3_Err
-				}
-			} else {
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 3, "<p class=\"notice bad\" data-testid=\"db-status\">Database: <span class=\"status-bad\">not answering</span>. Pages that need it will fail until it is back.</p>")
-				if templ_7745c5c3_Err != nil {
-					return templ_7745c5c3_Err
-				}
-			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 4, " <p class=\"muted\">Version ")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 1, "<h1>Insulation sizing for pipe and duct runs</h1><p>Lagwright sizes thermal insulation line by line for a whole project: heat loss or gain, surface temperature, condensation risk, personnel protection, energy-code minimums and energy payback, and an insulation schedule an estimator can price and a crew can install.</p><p>Results follow published methods (ASTM C680, ISO 12241, ASHRAE Fundamentals) and are stored and computed in SI; each project shows them in SI or US customary units.</p><p>To look around, open <a href=\"/projects\">Projects</a> and create the demo project: an invented brewery expansion with ")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
 			var templ_7745c5c3_Var3 string
-			templ_7745c5c3_Var3, templ_7745c5c3_Err = templ.JoinStringErrs(v.Version)
+			templ_7745c5c3_Var3, templ_7745c5c3_Err = templ.JoinStringErrs(strconv.Itoa(v.DemoLines))
 			if templ_7745c5c3_Err != nil {
-				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/home.templ`, Line: 30, Col: 38}
+				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/home.templ`, Line: 30, Col: 53}
 			}
 			_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var3))
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 5, "</p>")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 2, " lines of heating hot water, steam, chilled water, domestic water, refrigerant and duct runs.</p><h2>Status</h2>")
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			if v.DBReady {
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 3, "<p class=\"notice ok\" data-testid=\"db-status\">Database: <span class=\"status-ok\">ready</span></p>")
+				if templ_7745c5c3_Err != nil {
+					return templ_7745c5c3_Err
+				}
+			} else {
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 4, "<p class=\"notice bad\" data-testid=\"db-status\">Database: <span class=\"status-bad\">not answering</span>. Pages that need it will fail until it is back.</p>")
+				if templ_7745c5c3_Err != nil {
+					return templ_7745c5c3_Err
+				}
+			}
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 5, " <p class=\"muted\">Version ")
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			var templ_7745c5c3_Var4 string
+			templ_7745c5c3_Var4, templ_7745c5c3_Err = templ.JoinStringErrs(v.Version)
+			if templ_7745c5c3_Err != nil {
+				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/home.templ`, Line: 39, Col: 38}
+			}
+			_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var4))
+			if templ_7745c5c3_Err != nil {
+				return templ_7745c5c3_Err
+			}
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 6, "</p>")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}

@@ -329,7 +329,7 @@ func LinePage(v LineFormView) templ.Component {
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = entryText(v.EntryForm, "height_m", "Height", v.Units["height_m"], "Vertical pipes and walls (default 3 m).").Render(ctx, templ_7745c5c3_Buffer)
+			templ_7745c5c3_Err = entryText(v.EntryForm, "height_m", "Height", v.Units["height_m"], "Vertical pipes and walls (default "+v.Units["height_default"]+").").Render(ctx, templ_7745c5c3_Buffer)
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
