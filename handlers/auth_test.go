@@ -292,6 +292,12 @@ func TestViewerCannotChange(t *testing.T) {
 	c := sessionOf(t, loginAs(t, h, "192.0.2.1:1", "vic", "correct horse 2", "", nil))
 	if rec := doWith(h, "GET", "/projects/"+strconv.FormatInt(p.ID, 10), "", c, nil); rec.Code != http.StatusOK || !strings.Contains(rec.Body.String(), "(view only)") {
 		t.Errorf("viewer reads a project = %d, want 200 marked view only", rec.Code)
+	} else if strings.Contains(rec.Body.String(), `data-testid="delete-project"`) {
+		t.Errorf("a viewer is offered to delete the project")
+	}
+	if rec := doWith(h, "GET", "/projects/"+strconv.FormatInt(p.ID, 10)+"/delete", "", c, nil); rec.Code != http.StatusOK ||
+		strings.Contains(rec.Body.String(), "confirm-delete-project") || !strings.Contains(rec.Body.String(), "view-only") {
+		t.Errorf("viewer's delete page = %d, want 200 without the delete button", rec.Code)
 	}
 	// Every unsafe route of the router is refused with 403 for a viewer, before any handler runs.
 	n := 0

@@ -16,6 +16,8 @@ func (s *Server) projectPages(r chi.Router) {
 	r.Get("/", s.projectShow)
 	r.Get("/edit", s.projectEdit)
 	r.Post("/edit", s.projectUpdate)
+	r.Get("/delete", s.projectDeleteConfirm)
+	r.Post("/delete", s.projectDelete)
 	r.Get("/lines/new", s.lineNew)
 	r.Post("/lines", s.lineSave)
 	r.Post("/lines/results", s.lineResults)
