@@ -47,7 +47,7 @@ func (s *Server) projectAudit(r *http.Request) (schedule.Audit, error) {
 	if err != nil {
 		return schedule.Audit{}, err
 	}
-	sys := cmpSystem(p)
+	sys := projectSystem(p)
 	cur := set.Economics.CurrencyCode()
 	a := schedule.Audit{Project: p.Name, Currency: cur, Date: time.Now().UTC(), Cautions: []string{analysis.Caution,
 		"Savings are estimates for planning; survey conditions (moisture, damage, missing sections) change with time: check them on site before committing money."}}
@@ -209,8 +209,8 @@ func (s *Server) auditPage(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	base := cmpProjectURL(p.ID) + "/audit"
-	v := web.AuditView{Assets: s.assets.urls, Title: "Audit: " + p.Name, ProjectURL: cmpProjectURL(p.ID), EconomicsURL: cmpEconomicsURL(p.ID),
+	base := projectURL(p.ID) + "/audit"
+	v := web.AuditView{Assets: s.assets.urls, Title: "Audit: " + p.Name, ProjectURL: projectURL(p.ID), EconomicsURL: economicsURL(p.ID),
 		PDFURL: base + ".pdf", XLSXURL: base + ".xlsx", Currency: a.Currency, Rows: webTable(a.Rows), Totals: webTable(a.Totals),
 		Notes: a.Notes, Assumptions: a.Assumptions, Cautions: a.Cautions}
 	w.Header().Set("Cache-Control", "no-store")

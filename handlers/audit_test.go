@@ -20,23 +20,23 @@ func TestAudit(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p, _, _ := cmpFixture(t, st, "si") // ST-1: steam, no survey
+	p, _, _ := compareFixture(t, st, "si") // ST-1: steam, no survey
 	ctx := context.Background()
 	line := func(tag, existing string) int64 {
 		in := `{"geometry":"pipe","pipe_size":"NPS 4","steam_gauge_pressure_kpa":700,"length_m":100,
-			"layers":[{"material":"` + cmpMF + `","thickness_mm":50.8}],"jacket":"aluminium_new","existing":` + existing + `}`
-		l, err := st.CreateLine(ctx, store.Line{ProjectID: p.ID, Tag: tag, Service: "steam", Input: json.RawMessage(in)}, []string{cmpMF})
+			"layers":[{"material":"` + compareMaterial + `","thickness_mm":50.8}],"jacket":"aluminium_new","existing":` + existing + `}`
+		l, err := st.CreateLine(ctx, store.Line{ProjectID: p.ID, Tag: tag, Service: "steam", Input: json.RawMessage(in)}, []string{compareMaterial})
 		if err != nil {
 			t.Fatal(err)
 		}
 		return l.ID
 	}
-	line("ST-BARE", `{}`)                                                                                // found bare: the best payback
-	wet := line("ST-WET", `{"layers":[{"material":"`+cmpMF+`","thickness_mm":25.4}],"condition":"wet"}`) // found wet and thin
+	line("ST-BARE", `{}`)                                                                                          // found bare: the best payback
+	wet := line("ST-WET", `{"layers":[{"material":"`+compareMaterial+`","thickness_mm":25.4}],"condition":"wet"}`) // found wet and thin
 	// The Compare screen: a bare row and an as-found row, savings against each.
-	cmpBody := do(t, h, "GET", fmt.Sprintf("/projects/%d/lines/%d/compare", p.ID, wet), nil, nil).Body.String()
+	compareBody := do(t, h, "GET", fmt.Sprintf("/projects/%d/lines/%d/compare", p.ID, wet), nil, nil).Body.String()
 	for _, want := range []string{`data-testid="mark-as-found"`, `class="bare"`, "Saving/year against as found, USD", "Saving/year against bare, USD"} {
-		if !strings.Contains(cmpBody, want) {
+		if !strings.Contains(compareBody, want) {
 			t.Errorf("compare page of a surveyed line lacks %q", want)
 		}
 	}

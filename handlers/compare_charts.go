@@ -14,7 +14,7 @@ var shortCriterion = map[string]string{
 // compareCharts draws life-cycle cost, heat flow and surface temperature against
 // thickness for each material, with the economic thickness and the criteria minimums
 // of the line's own material marked.
-func cmpCharts(sides []cmpSide, sys units.System, qQty units.Quantity) []web.LineChartView {
+func charts(sides []sideResult, sys units.System, qQty units.Quantity) []web.LineChartView {
 	x := func(mm float64) float64 { return units.FromSI(units.Length, sys, mm) }
 	xLabel := "thickness of the sized layer, " + units.Label(units.Length, sys)
 	var markers []web.ChartMarker
@@ -27,7 +27,7 @@ func cmpCharts(sides []cmpSide, sys units.System, qQty units.Quantity) []web.Lin
 			markers = append(markers, web.ChartMarker{X: x(*e), Label: label, Strong: i == 0})
 		}
 	}
-	for _, m := range cmpCriterionMins(sides[0].out.Sizing) {
+	for _, m := range criterionMins(sides[0].out.Sizing) {
 		if m.mm != nil && *m.mm > 0 {
 			markers = append(markers, web.ChartMarker{X: x(*m.mm), Label: "min " + shortCriterion[m.label]})
 		}

@@ -17,9 +17,9 @@ import (
 	"lagwright/web"
 )
 
-// cmpSide is one material's comparison: the line's full answer (criteria, economic
+// sideResult is one material's comparison: the line's full answer (criteria, economic
 // thickness over the priced thicknesses) and a row for every candidate thickness.
-type cmpSide struct {
+type sideResult struct {
 	slug, name string
 	out        *analysis.Output
 	rows       []analysis.EconomicsRow
@@ -30,9 +30,9 @@ type cmpSide struct {
 // project prices it (the priced rows, the economic thickness, every criterion), and
 // over every candidate of the sized material without prices (heat flow, surface
 // temperature, energy and its cost for each), then merges the two by thickness.
-func cmpCompareSide(set analysis.ProjectSettings, l store.Line, own analysis.Input, fit analysis.Fittings,
-	lib *store.Library) (cmpSide, error) {
-	var side cmpSide
+func compareSide(set analysis.ProjectSettings, l store.Line, own analysis.Input, fit analysis.Fittings,
+	lib *store.Library) (sideResult, error) {
+	var side sideResult
 	eff := set.Effective(l.Location, own, fit)
 	out, err := analysis.Analyse(eff, lib)
 	if err != nil {
@@ -78,7 +78,7 @@ func cmpCompareSide(set analysis.ProjectSettings, l store.Line, own analysis.Inp
 		}
 		side.rows = append(side.rows, r)
 	}
-	if m, ok := lib.Material(cmpOuterMaterial(own)); ok {
+	if m, ok := lib.Material(outerMaterial(own)); ok {
 		side.slug, side.name = m.Slug, m.Name
 	} else {
 		side.slug, side.name = "custom", "Outer layer (conductivity given)"
@@ -86,7 +86,7 @@ func cmpCompareSide(set analysis.ProjectSettings, l store.Line, own analysis.Inp
 	return side, nil
 }
 
-func cmpOuterMaterial(in analysis.Input) string {
+func outerMaterial(in analysis.Input) string {
 	if n := len(in.Layers); n > 0 {
 		return in.Layers[n-1].Material
 	}
@@ -95,7 +95,7 @@ func cmpOuterMaterial(in analysis.Input) string {
 
 // withMaterial is the line's input with its outer layer of another material (its
 // thickness kept); the candidates become that material's series and costs its rows.
-func cmpWithMaterial(own analysis.Input, slug string) analysis.Input {
+func withMaterial(own analysis.Input, slug string) analysis.Input {
 	in := own
 	in.Layers = slices.Clone(own.Layers)
 	n := len(in.Layers)
@@ -111,7 +111,7 @@ func cmpWithMaterial(own analysis.Input, slug string) analysis.Input {
 
 // comparePage shows GET /projects/{id}/lines/{line}/compare[?alt=slug].
 func (s *Server) comparePage(w http.ResponseWriter, r *http.Request) {
-	c, err := cmpLoadLine(r)
+	c, err := loadCompareLine(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -125,19 +125,19 @@ func (s *Server) comparePage(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	own, err := cmpCompareSide(c.Set, c.Line, c.Own, c.Fit, lib)
+	own, err := compareSide(c.Set, c.Line, c.Own, c.Fit, lib)
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
-	sides := []cmpSide{own}
+	sides := []sideResult{own}
 	alt := r.URL.Query().Get("alt")
-	if alt != "" && alt != cmpOuterMaterial(c.Own) {
+	if alt != "" && alt != outerMaterial(c.Own) {
 		if _, ok := lib.Material(alt); !ok {
 			s.fail(w, r, Invalid(field.Error{Field: "alt", Message: "no such material in the library"}))
 			return
 		}
-		side, err := cmpCompareSide(c.Set, c.Line, cmpWithMaterial(c.Own, alt), c.Fit, lib)
+		side, err := compareSide(c.Set, c.Line, withMaterial(c.Own, alt), c.Fit, lib)
 		if err != nil {
 			s.fail(w, r, err)
 			return
@@ -150,7 +150,7 @@ func (s *Server) comparePage(w http.ResponseWriter, r *http.Request) {
 }
 
 // criterionMins lists each criterion's thinnest thickness (sized layer) by label.
-func cmpCriterionMins(sz analysis.Sizing) []struct {
+func criterionMins(sz analysis.Sizing) []struct {
 	label string
 	mm    *float64
 } {
@@ -164,8 +164,8 @@ func cmpCriterionMins(sz analysis.Sizing) []struct {
 	}
 }
 
-func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt string) web.CompareView {
-	sys := cmpSystem(c.Project)
+func (s *Server) compareView(c compareLine, sides []sideResult, lib *store.Library, alt string) web.CompareView {
+	sys := projectSystem(c.Project)
 	pid, lid := c.Project.ID, c.Line.ID
 	main := sides[0].out
 	flat := main.Geometry == "flat"
@@ -181,11 +181,11 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 	v := web.CompareView{
 		Assets:       s.assets.urls,
 		Title:        "Compare thicknesses: " + cmp.Or(c.Line.Tag, "line "+strconv.FormatInt(lid, 10)),
-		LineURL:      cmpLineURL(pid, lid),
-		ProjectURL:   cmpProjectURL(pid),
-		CostsURL:     cmpCostsURL(pid),
-		EconomicsURL: cmpEconomicsURL(pid),
-		ThicknessURL: cmpLineURL(pid, lid) + "/thickness",
+		LineURL:      lineURL(pid, lid),
+		ProjectURL:   projectURL(pid),
+		CostsURL:     costsURL(pid),
+		EconomicsURL: economicsURL(pid),
+		ThicknessURL: lineURL(pid, lid) + "/thickness",
 		Version:      c.Line.Version,
 		Head: web.CompareHead{
 			Thickness: "Thickness, " + units.Label(units.Length, sys),
@@ -201,7 +201,7 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 		},
 	}
 	if b := main.EnergyBasis; b != nil {
-		v.Head.Basis = cmpBasisText(*b)
+		v.Head.Basis = basisText(*b)
 	}
 	if sys == units.US {
 		v.Head.Energy2 = "Energy, MMBtu/year"
@@ -236,19 +236,19 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 	}
 
 	thick := func(mm float64) string { return units.FormatUnit(units.Length, sys, mm) }
-	for _, m := range cmpCriterionMins(main.Sizing) {
+	for _, m := range criterionMins(main.Sizing) {
 		if m.mm != nil {
-			v.Criteria = append(v.Criteria, web.CompareCriterion{Label: m.label, Value: cmpThickOrBare(thick, *m.mm)})
+			v.Criteria = append(v.Criteria, web.CompareCriterion{Label: m.label, Value: thickOrBare(thick, *m.mm)})
 		}
 	}
 	for _, k := range main.Sizing.Unmet {
 		v.Criteria = append(v.Criteria, web.CompareCriterion{Label: strings.ReplaceAll(k, "_", " "), Value: "no available thickness meets it"})
 	}
 	if e := main.Sizing.EconomicMM; e != nil {
-		v.Criteria = append(v.Criteria, web.CompareCriterion{Label: "economic (least life-cycle cost)", Value: cmpThickOrBare(thick, *e), Economic: true})
+		v.Criteria = append(v.Criteria, web.CompareCriterion{Label: "economic (least life-cycle cost)", Value: thickOrBare(thick, *e), Economic: true})
 	}
 	if g := main.Sizing.Governing; g != nil && main.Sizing.GoverningThicknessMM != nil {
-		v.Criteria = append(v.Criteria, web.CompareCriterion{Label: "governing", Value: strings.ReplaceAll(*g, "_", " ") + ", " + cmpThickOrBare(thick, *main.Sizing.GoverningThicknessMM)})
+		v.Criteria = append(v.Criteria, web.CompareCriterion{Label: "governing", Value: strings.ReplaceAll(*g, "_", " ") + ", " + thickOrBare(thick, *main.Sizing.GoverningThicknessMM)})
 	}
 
 	outerNow := 0.0
@@ -261,12 +261,12 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 			vs.Material = sd.name + " (second material)"
 		}
 		if e := sd.out.Sizing.EconomicMM; e != nil {
-			vs.Economic = cmpThickOrBare(thick, *e)
+			vs.Economic = thickOrBare(thick, *e)
 		}
 		if !sd.priced {
 			vs.PricesNote = "no installed costs match this material and size"
 		}
-		mins := cmpCriterionMins(sd.out.Sizing)
+		mins := criterionMins(sd.out.Sizing)
 		var found *analysis.EconomicsRow
 		for i := range sd.rows {
 			if sd.rows[i].AsFound {
@@ -279,29 +279,29 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 				ThicknessMM: strconv.FormatFloat(r.ThicknessMM, 'f', -1, 64),
 				Thickness:   units.Format(units.Length, sys, r.ThicknessMM),
 				HeatFlow:    units.Format(qQty, sys, r.HeatFlowWPerM),
-				HeatRun:     cmpGroup(units.Format(units.HeatFlow, sys, r.HeatFlowWPerM*runLen)),
+				HeatRun:     groupThousands(units.Format(units.HeatFlow, sys, r.HeatFlowWPerM*runLen)),
 				Surface:     units.Format(units.Temp, sys, r.SurfaceTempC),
-				Energy:      cmpNumber(r.AnnualKWh),
+				Energy:      numberText(r.AnnualKWh),
 				Energy2:     units.Format(units.Energy, units.US, r.AnnualKWh),
-				Cost:        cmpMoney(r.AnnualCost),
-				CO2:         cmpNumber(r.CO2Kg),
-				Installed:   cmpMoneyPtr(r.InstalledCost),
-				Simple:      cmpYears(r.SimplePaybackYears),
-				Incremental: cmpYears(r.IncrementalPaybackYears),
-				NPV:         cmpMoneyPtr(r.NPV),
-				LCC:         cmpMoneyPtr(r.LifeCycleCost),
-				Current:     i == 0 && !r.AsFound && cmpAbs(r.ThicknessMM-outerNow) < 0.005,
+				Cost:        moneyText(r.AnnualCost),
+				CO2:         numberText(r.CO2Kg),
+				Installed:   moneyPtrText(r.InstalledCost),
+				Simple:      yearsText(r.SimplePaybackYears),
+				Incremental: yearsText(r.IncrementalPaybackYears),
+				NPV:         moneyPtrText(r.NPV),
+				LCC:         moneyPtrText(r.LifeCycleCost),
+				Current:     i == 0 && !r.AsFound && absDiff(r.ThicknessMM-outerNow) < 0.005,
 			}
 			row.SavingBare = "—"
 			if r.AnnualSavings != nil {
-				row.SavingBare = cmpMoney(r.AnnualSavings.Cost)
+				row.SavingBare = moneyText(r.AnnualSavings.Cost)
 			}
 			if eff.Economics == nil || sd.out.EnergyBasis == nil {
 				row.Cost, row.SavingBare = "—", "—"
 			}
 			row.SavingFound = "—"
 			if found != nil && !r.AsFound && row.Cost != "—" {
-				row.SavingFound = cmpMoney(found.AnnualCost - r.AnnualCost)
+				row.SavingFound = moneyText(found.AnnualCost - r.AnnualCost)
 			}
 			switch {
 			case r.AsFound:
@@ -325,14 +325,14 @@ func (s *Server) compareView(c cmpLine, sides []cmpSide, lib *store.Library, alt
 		}
 		v.Sides = append(v.Sides, vs)
 	}
-	v.Charts = cmpCharts(sides, sys, qQty)
+	v.Charts = charts(sides, sys, qQty)
 	v.Warnings = withUSValuesAll(sys, main.Warnings)
 	v.Assumptions = withUSValuesAll(sys, main.Assumptions)
 	return v
 }
 
-// cmpBasisText names the energy basis a line is priced on, in words.
-func cmpBasisText(b analysis.EnergyBasis) string {
+// basisText names the energy basis a line is priced on, in words.
+func basisText(b analysis.EnergyBasis) string {
 	conv := ""
 	switch {
 	case b.Efficiency != nil:
@@ -346,14 +346,14 @@ func cmpBasisText(b analysis.EnergyBasis) string {
 		strconv.FormatFloat(b.CO2KgPerKWh, 'f', -1, 64))
 }
 
-func cmpThickOrBare(thick func(float64) string, mm float64) string {
+func thickOrBare(thick func(float64) string, mm float64) string {
 	if mm == 0 {
 		return "bare (no insulation needed)"
 	}
 	return thick(mm)
 }
 
-func cmpAbs(v float64) float64 {
+func absDiff(v float64) float64 {
 	if v < 0 {
 		return -v
 	}

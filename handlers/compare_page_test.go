@@ -16,18 +16,18 @@ import (
 	"lagwright/store/storetest"
 )
 
-const cmpMF = "mineral_fiber_pipe_c547_t1"
+const compareMaterial = "mineral_fiber_pipe_c547_t1"
 
-// cmpFixture makes a project (with an energy price and a cost table for mineral fibre)
+// compareFixture makes a project (with an energy price and a cost table for mineral fibre)
 // and one steam line on a fresh database.
-func cmpFixture(t *testing.T, st *store.Store, sys string) (store.Project, store.Line, analysis.ProjectSettings) {
+func compareFixture(t *testing.T, st *store.Store, sys string) (store.Project, store.Line, analysis.ProjectSettings) {
 	t.Helper()
 	ctx := context.Background()
 	f := func(v float64) *float64 { return &v }
 	set := analysis.DefaultSettings()
 	set.Economics = &analysis.Economics{Heating: &analysis.HeatingBasis{PricePerKWh: f(0.06), Efficiency: f(0.85), HoursPerYear: f(8000)}}
 	for _, tmm := range []float64{25.4, 38.1, 50.8, 63.5, 76.2, 101.6} {
-		set.CostTable = append(set.CostTable, analysis.CostRow{Material: cmpMF, NominalSize: "any", ThicknessMM: tmm,
+		set.CostTable = append(set.CostTable, analysis.CostRow{Material: compareMaterial, NominalSize: "any", ThicknessMM: tmm,
 			CostPerM: 20 + 0.6*tmm + 0.004*tmm*tmm})
 	}
 	js, _ := json.Marshal(set)
@@ -36,8 +36,8 @@ func cmpFixture(t *testing.T, st *store.Store, sys string) (store.Project, store
 		t.Fatal(err)
 	}
 	in := `{"geometry":"pipe","pipe_size":"NPS 4","steam_gauge_pressure_kpa":700,"length_m":100,
-		"layers":[{"material":"` + cmpMF + `","thickness_mm":25.4}],"jacket":"aluminium_new"}`
-	l, err := st.CreateLine(ctx, store.Line{ProjectID: p.ID, Tag: "ST-1", Service: "steam", Input: json.RawMessage(in)}, []string{cmpMF})
+		"layers":[{"material":"` + compareMaterial + `","thickness_mm":25.4}],"jacket":"aluminium_new"}`
+	l, err := st.CreateLine(ctx, store.Line{ProjectID: p.ID, Tag: "ST-1", Service: "steam", Input: json.RawMessage(in)}, []string{compareMaterial})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -48,7 +48,7 @@ func TestComparePage(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p, l, set := cmpFixture(t, st, "si")
+	p, l, set := compareFixture(t, st, "si")
 
 	// The economic thickness the analysis finds for this line with the project's costs.
 	lib, err := st.Library(context.Background())
@@ -117,7 +117,7 @@ func TestComparePage(t *testing.T) {
 func TestComparePageUSUnits(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
-	p, l, _ := cmpFixture(t, st, "us")
+	p, l, _ := compareFixture(t, st, "us")
 	rec := do(t, s.Routes(), "GET", fmt.Sprintf("/projects/%d/lines/%d/compare", p.ID, l.ID), nil, nil)
 	if rec.Code != 200 {
 		t.Fatalf("status %d", rec.Code)
@@ -133,7 +133,7 @@ func TestUseThickness(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p, l, _ := cmpFixture(t, st, "si")
+	p, l, _ := compareFixture(t, st, "si")
 	target := fmt.Sprintf("/projects/%d/lines/%d/thickness", p.ID, l.ID)
 	post := func(thick string, version int) int {
 		form := url.Values{"thickness_mm": {thick}, "version": {strconv.Itoa(version)}}

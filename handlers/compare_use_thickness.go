@@ -13,7 +13,7 @@ import (
 // recomputes the line's answer and saves it if the line is still at `version` (409
 // otherwise), then sends the browser to the line page (303).
 func (s *Server) compareUseThickness(w http.ResponseWriter, r *http.Request) {
-	c, err := cmpLoadLine(r)
+	c, err := loadCompareLine(r)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -68,5 +68,5 @@ func (s *Server) compareUseThickness(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err) // store.ErrConflict → 409
 		return
 	}
-	http.Redirect(w, r, cmpLineURL(c.Project.ID, c.Line.ID), http.StatusSeeOther)
+	http.Redirect(w, r, lineURL(c.Project.ID, c.Line.ID), http.StatusSeeOther)
 }

@@ -20,13 +20,13 @@ func currencyOf(p store.Project) string {
 
 // costsView builds the cost-table screen around rows as they are (stored or typed).
 func (s *Server) costsView(p store.Project, lib *store.Library, rows []web.CostRowView) web.CostsView {
-	sys := cmpSystem(p)
+	sys := projectSystem(p)
 	v := web.CostsView{
 		Assets:        s.assets.urls,
 		Title:         "Installed costs: " + p.Name,
-		ProjectURL:    cmpProjectURL(p.ID),
-		Action:        cmpCostsURL(p.ID),
-		ExampleAction: cmpCostsURL(p.ID) + "/example",
+		ProjectURL:    projectURL(p.ID),
+		Action:        costsURL(p.ID),
+		ExampleAction: costsURL(p.ID) + "/example",
 		Version:       p.Version,
 		ThicknessUnit: units.Label(units.Length, sys),
 		CostUnit:      costUnit(sys),
@@ -52,7 +52,7 @@ func (s *Server) costsEdit(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	v := s.costsView(p, lib, costRowsView(set.CostTable, cmpSystem(p)))
+	v := s.costsView(p, lib, costRowsView(set.CostTable, projectSystem(p)))
 	v.Saved = r.URL.Query().Get("saved") == "1"
 	w.Header().Set("Cache-Control", "no-store")
 	templ.Handler(web.Costs(v)).ServeHTTP(w, r)

@@ -41,7 +41,7 @@ func (s *Server) costsExample(w http.ResponseWriter, r *http.Request) {
 		if err != nil {
 			continue
 		}
-		if m := cmpOuterMaterial(own); m != "" && !slices.Contains(mats, m) {
+		if m := outerMaterial(own); m != "" && !slices.Contains(mats, m) {
 			if _, ok := lib.Material(m); ok {
 				mats = append(mats, m)
 			}
@@ -68,5 +68,5 @@ func (s *Server) costsExample(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	http.Redirect(w, r, cmpCostsURL(p.ID)+"?saved=1", http.StatusSeeOther)
+	http.Redirect(w, r, costsURL(p.ID)+"?saved=1", http.StatusSeeOther)
 }

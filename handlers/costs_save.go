@@ -21,7 +21,7 @@ func (s *Server) costsSave(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	f, err := parseCostsForm(r, cmpSystem(p), lib)
+	f, err := parseCostsForm(r, projectSystem(p), lib)
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -41,7 +41,7 @@ func (s *Server) costsSave(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	http.Redirect(w, r, cmpCostsURL(p.ID)+"?saved=1", http.StatusSeeOther)
+	http.Redirect(w, r, costsURL(p.ID)+"?saved=1", http.StatusSeeOther)
 }
 
 // saveCostTable stores a cost table in the project's settings at the version the user saw.

@@ -17,7 +17,7 @@ func TestCostTable(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p, _, set := cmpFixture(t, st, "us")
+	p, _, set := compareFixture(t, st, "us")
 	target := fmt.Sprintf("/projects/%d/costs", p.ID)
 	formHdr := map[string]string{"Content-Type": "application/x-www-form-urlencoded"}
 	ctx := context.Background()
@@ -29,10 +29,10 @@ func TestCostTable(t *testing.T) {
 
 	// A paste with one bad row: 422, every bad line named, nothing saved.
 	bad := url.Values{"version": {strconv.Itoa(p.Version)}, "rows": {"0"}, "paste": {"material\tsize\tthickness\tcost\n" +
-		cmpMF + "\tNPS 4\t2\t30.50\n" +
+		compareMaterial + "\tNPS 4\t2\t30.50\n" +
 		"unobtainium\tNPS 4\t2\t12\n" +
-		cmpMF + "\tNPS 4\t-1\tabc\n" +
-		cmpMF + ",4,2,31\n"}}
+		compareMaterial + "\tNPS 4\t-1\tabc\n" +
+		compareMaterial + ",4,2,31\n"}}
 	rec = do(t, h, "POST", target, strings.NewReader(bad.Encode()), formHdr)
 	if rec.Code != 422 {
 		t.Fatalf("bad paste = %d, want 422", rec.Code)
@@ -51,7 +51,7 @@ func TestCostTable(t *testing.T) {
 	}
 
 	// A good paste: per ft in US units is stored per metre; exact-size rows stored as typed.
-	good := url.Values{"version": {strconv.Itoa(p.Version)}, "rows": {"0"}, "paste": {cmpMF + "\tNPS 4\t2\t30.48\n" + cmpMF + ", any, 1-1/2, 10\n"}}
+	good := url.Values{"version": {strconv.Itoa(p.Version)}, "rows": {"0"}, "paste": {compareMaterial + "\tNPS 4\t2\t30.48\n" + compareMaterial + ", any, 1-1/2, 10\n"}}
 	rec = do(t, h, "POST", target, strings.NewReader(good.Encode()), formHdr)
 	if rec.Code != 303 {
 		t.Fatalf("good paste = %d, want 303\n%s", rec.Code, rec.Body)

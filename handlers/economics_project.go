@@ -59,10 +59,10 @@ func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	sys := cmpSystem(p)
+	sys := projectSystem(p)
 	cur := set.Economics.CurrencyCode()
-	v := web.EconomicsView{Assets: s.assets.urls, Title: "Economics: " + p.Name, ProjectURL: cmpProjectURL(p.ID),
-		CostsURL: cmpCostsURL(p.ID), AuditURL: cmpProjectURL(p.ID) + "/audit", EnergyHead: "Energy bought, kWh/year", Currency: cur}
+	v := web.EconomicsView{Assets: s.assets.urls, Title: "Economics: " + p.Name, ProjectURL: projectURL(p.ID),
+		CostsURL: costsURL(p.ID), AuditURL: projectURL(p.ID) + "/audit", EnergyHead: "Energy bought, kWh/year", Currency: cur}
 	if sys == units.US {
 		v.Energy2Head = "Energy bought, MMBtu/year"
 	}
@@ -71,7 +71,7 @@ func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
 	var noPrice, failed, noEconomic, example int
 	for _, lv := range lines {
 		row := web.EconLineRow{Tag: cmp.Or(lv.Line.Tag, fmt.Sprintf("line %d", lv.Line.ID)), Service: lv.Line.Service,
-			URL: cmpLineURL(p.ID, lv.Line.ID), CompareURL: cmpCompareURL(p.ID, lv.Line.ID)}
+			URL: lineURL(p.ID, lv.Line.ID), CompareURL: compareURL(p.ID, lv.Line.ID)}
 		out := lv.Result.Output
 		if out == nil {
 			failed++
@@ -115,13 +115,13 @@ func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
 		t.bare.add(bare)
 		t.eco.add(eco)
 		byService[cmp.Or(lv.Line.Service, "(no service)")] += spec.kwh
-		row.EnergySpec, row.EnergyEco = cmpNumber(spec.kwh), cmpNumber(eco.kwh)
-		row.CostSpec, row.CostEco = cmpMoney(spec.cost), cmpMoney(eco.cost)
+		row.EnergySpec, row.EnergyEco = numberText(spec.kwh), numberText(eco.kwh)
+		row.CostSpec, row.CostEco = moneyText(spec.cost), moneyText(eco.cost)
 		v.Lines = append(v.Lines, row)
 	}
 	scen := func(key, name string, t, bare econTotal, invest bool) web.EconScenario {
-		sc := web.EconScenario{Key: key, Name: name, Energy: cmpNumber(t.kwh), Energy2: units.Format(units.Energy, units.US, t.kwh),
-			Cost: cmpMoney(t.cost), CO2: cmpNumber(t.co2), Investment: "—", Payback: "—"}
+		sc := web.EconScenario{Key: key, Name: name, Energy: numberText(t.kwh), Energy2: units.Format(units.Energy, units.US, t.kwh),
+			Cost: moneyText(t.cost), CO2: numberText(t.co2), Investment: "—", Payback: "—"}
 		if !invest {
 			return sc
 		}
@@ -130,10 +130,10 @@ func (s *Server) economicsProject(w http.ResponseWriter, r *http.Request) {
 			sc.Note = "no installed costs"
 			return sc
 		}
-		sc.Investment = cmpMoney(t.invest)
+		sc.Investment = moneyText(t.invest)
 		if saving := bare.cost - t.cost; saving > 0 {
 			y := t.invest / saving
-			sc.Payback = cmpYears(&y)
+			sc.Payback = yearsText(&y)
 		} else {
 			sc.Payback = "none"
 		}

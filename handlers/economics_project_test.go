@@ -18,11 +18,11 @@ func TestProjectEconomics(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p, _, _ := cmpFixture(t, st, "si")
+	p, _, _ := compareFixture(t, st, "si")
 	in := `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":80,"length_m":60,
-		"layers":[{"material":"` + cmpMF + `","thickness_mm":25.4}],"jacket":"all_service_jacket"}`
+		"layers":[{"material":"` + compareMaterial + `","thickness_mm":25.4}],"jacket":"all_service_jacket"}`
 	if _, err := st.CreateLine(context.Background(), store.Line{ProjectID: p.ID, Tag: "HW-1", Service: "heating hot water",
-		Input: json.RawMessage(in)}, []string{cmpMF}); err != nil {
+		Input: json.RawMessage(in)}, []string{compareMaterial}); err != nil {
 		t.Fatal(err)
 	}
 	target := fmt.Sprintf("/projects/%d/economics", p.ID)
@@ -45,9 +45,9 @@ func TestProjectEconomics(t *testing.T) {
 	// The project has no cooling price: a chilled-water line is left out, never priced
 	// on the heating basis.
 	cold := `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":6,"length_m":60,
-		"layers":[{"material":"` + cmpMF + `","thickness_mm":25.4}],"jacket":"all_service_jacket"}`
+		"layers":[{"material":"` + compareMaterial + `","thickness_mm":25.4}],"jacket":"all_service_jacket"}`
 	if _, err := st.CreateLine(context.Background(), store.Line{ProjectID: p.ID, Tag: "CHW-1", Service: "chilled water",
-		Input: json.RawMessage(cold)}, []string{cmpMF}); err != nil {
+		Input: json.RawMessage(cold)}, []string{compareMaterial}); err != nil {
 		t.Fatal(err)
 	}
 	body = do(t, h, "GET", target, nil, nil).Body.String()

@@ -59,7 +59,7 @@ func FuzzLineForm(f *testing.F) {
 	}
 	keep := &analysis.Input{Geometry: "pipe"}
 	f.Fuzz(func(t *testing.T, raw, key, value string) {
-		form, req := fuzzForm(t, ptLineForm(), raw, key, value)
+		form, req := fuzzForm(t, lineFormValuesFor(), raw, key, value)
 		for _, sys := range []units.System{units.SI, units.US} {
 			for _, k := range []*analysis.Input{nil, keep} {
 				st, lf := lineFormFromRequest(req, sys, k)
@@ -93,7 +93,7 @@ func FuzzProjectForm(f *testing.F) {
 		f.Add(s.raw, s.key, s.value)
 	}
 	f.Fuzz(func(t *testing.T, raw, key, value string) {
-		form, req := fuzzForm(t, ptProjectForm(), raw, key, value)
+		form, req := fuzzForm(t, testProjectForm(), raw, key, value)
 		st, in := projectFormFromRequest(req)
 		if got := st.Values.Get("name"); got != form.Get("name") {
 			t.Fatalf("name kept as %q, typed %q", got, form.Get("name"))

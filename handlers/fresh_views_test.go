@@ -21,7 +21,7 @@ func TestViewsDoNotRecomputeFreshLines(t *testing.T) {
 	s, _ := newServer(t, st)
 	h := s.Routes()
 	ctx := context.Background()
-	if rec := ptPost(t, h, "/projects/demo", url.Values{}, nil); rec.Code != http.StatusSeeOther {
+	if rec := postPage(t, h, "/projects/demo", url.Values{}, nil); rec.Code != http.StatusSeeOther {
 		t.Fatalf("demo = %d", rec.Code)
 	}
 	list, _ := st.Projects(ctx)

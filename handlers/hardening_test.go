@@ -22,9 +22,9 @@ func TestVersionsOutOfRange(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	base := fmt.Sprintf("/api/v1/projects/%d", p.ID)
-	code, m := ptJSON(t, h, "POST", base+"/lines", ptSteamLine)
+	code, m := getJSON(t, h, "POST", base+"/lines", steamLine)
 	if code != 201 {
 		t.Fatalf("create line = %d %v", code, m)
 	}
@@ -67,7 +67,7 @@ func TestIDsCanonical(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	id := fmt.Sprint(p.ID)
 	for _, path := range []string{"/projects/%s", "/projects/%s/edit", "/projects/%s/schedule", "/projects/%s/import", "/api/v1/projects/%s", "/projects/%s/costs"} {
 		if rec := do(t, h, "GET", fmt.Sprintf(path, id), nil, nil); rec.Code != 200 {
@@ -89,7 +89,7 @@ func TestHead(t *testing.T) {
 	s, _ := newServer(t, st)
 	srv := httptest.NewServer(s.Routes())
 	t.Cleanup(srv.Close)
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	for _, path := range []string{"/healthz", "/readyz", "/", "/projects", fmt.Sprintf("/projects/%d", p.ID), "/materials", "/api/v1/projects"} {
 		res, err := http.Head(srv.URL + path)
 		if err != nil {

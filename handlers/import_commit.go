@@ -17,13 +17,13 @@ import (
 // project (303).
 func (s *Server) importCommit(w http.ResponseWriter, r *http.Request) {
 	p, _ := projectOf(r)
-	text, err := impFormText(r, "text")
+	text, err := importFormText(r, "text")
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
 	if strings.TrimSpace(text) == "" {
-		http.Redirect(w, r, impImportURL(p.ID), http.StatusSeeOther)
+		http.Redirect(w, r, importURL(p.ID), http.StatusSeeOther)
 		return
 	}
 	if strings.Count(text, "\n") > importJobRows {
@@ -32,7 +32,7 @@ func (s *Server) importCommit(w http.ResponseWriter, r *http.Request) {
 			s.fail(w, r, err)
 			return
 		}
-		http.Redirect(w, r, impJobURL(p.ID, id), http.StatusSeeOther)
+		http.Redirect(w, r, importJobURL(p.ID, id), http.StatusSeeOther)
 		return
 	}
 	plan, err := s.planImport(r.Context(), p, []byte(text), nil)
@@ -49,5 +49,5 @@ func (s *Server) importCommit(w http.ResponseWriter, r *http.Request) {
 		s.fail(w, r, err)
 		return
 	}
-	http.Redirect(w, r, impProjectURL(p.ID), http.StatusSeeOther)
+	http.Redirect(w, r, projectURL(p.ID), http.StatusSeeOther)
 }

@@ -201,10 +201,6 @@ func (s *Server) runImportJob(ctx context.Context, r *jobRunner, j store.Job) {
 	}
 }
 
-func impJobURL(projectID int64, id string) string {
-	return fmt.Sprintf("/projects/%d/import/jobs/%s", projectID, id)
-}
-
 // startImportJob queues the import of text into p and returns the job's id.
 func (s *Server) startImportJob(ctx context.Context, p store.Project, text []byte) (string, error) {
 	id, err := s.store.EnqueueJob(ctx, importJobKind, p.ID, text)
@@ -261,8 +257,8 @@ func (s *Server) importJobView(p store.Project, j store.Job) web.ImportProgressV
 		_ = json.Unmarshal(j.Problems, &problems) // written by FailJob from the same type
 	}
 	return web.ImportProgressView{
-		Assets: s.assets.urls, ProjectName: p.Name, ProjectURL: impProjectURL(p.ID), ImportURL: impImportURL(p.ID),
-		JobURL: impJobURL(p.ID, j.ID), Phase: phase, Done: j.Done, Total: j.Total, Created: j.Created,
-		Message: j.Message, Problems: impProblems(problems),
+		Assets: s.assets.urls, ProjectName: p.Name, ProjectURL: projectURL(p.ID), ImportURL: importURL(p.ID),
+		JobURL: importJobURL(p.ID, j.ID), Phase: phase, Done: j.Done, Total: j.Total, Created: j.Created,
+		Message: j.Message, Problems: importProblems(problems),
 	}
 }

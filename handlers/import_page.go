@@ -17,10 +17,10 @@ func (s *Server) importForm(w http.ResponseWriter, r *http.Request) {
 	templ.Handler(web.ImportPage(s.importView(p, "", nil))).ServeHTTP(w, r)
 }
 
-// impFormText reads the line list of an import form: the uploaded file when one was
+// importFormText reads the line list of an import form: the uploaded file when one was
 // chosen, else the named text field (the paste box, or the commit's hidden copy).
 // The body limit of the server applies.
-func impFormText(r *http.Request, field string) (string, error) {
+func importFormText(r *http.Request, field string) (string, error) {
 	if err := r.ParseMultipartForm(1 << 20); err != nil && !errors.Is(err, http.ErrNotMultipart) {
 		return "", err
 	}
@@ -42,7 +42,7 @@ func impFormText(r *http.Request, field string) (string, error) {
 // is answered 422, with the form and the text to fix.
 func (s *Server) importPreview(w http.ResponseWriter, r *http.Request) {
 	p, _ := projectOf(r)
-	text, err := impFormText(r, "rows")
+	text, err := importFormText(r, "rows")
 	if err != nil {
 		s.fail(w, r, err)
 		return

@@ -43,7 +43,7 @@ const importChunk = 250
 // many rows have been analysed so far. The returned error is for internal failures
 // only; problems with the file are in plan.Problems.
 func (s *Server) planImport(ctx context.Context, p store.Project, text []byte, progress func(done, total int)) (*importPlan, error) {
-	plan := &importPlan{Project: p, Sys: impSystem(p)}
+	plan := &importPlan{Project: p, Sys: projectSystem(p)}
 	rows, problems := linelist.Parse(bytes.NewReader(text))
 	plan.Rows, plan.Problems = rows, problems
 	for _, e := range problems {
@@ -87,7 +87,7 @@ func (s *Server) planImport(ctx context.Context, p store.Project, text []byte, p
 			taken[r.Tag] = r.Row
 		}
 		for j := range r.Input.Layers {
-			slug, ok := impMaterialSlug(lib, r.Input.Layers[j].Material)
+			slug, ok := materialSlug(lib, r.Input.Layers[j].Material)
 			if !ok {
 				add(i, r.Column(fmt.Sprintf("layers[%d].material", j)),
 					"unknown material %q: give its slug or name from the Materials page (e.g. mineral_fiber_pipe_c547_t1)", r.Input.Layers[j].Material)
@@ -96,7 +96,7 @@ func (s *Server) planImport(ctx context.Context, p store.Project, text []byte, p
 			r.Input.Layers[j].Material = slug
 		}
 		if r.Input.Jacket != "" {
-			slug, ok := impJacketSlug(lib, r.Input.Jacket)
+			slug, ok := jacketSlug(lib, r.Input.Jacket)
 			if !ok {
 				add(i, r.Column("jacket"), "unknown jacket %q: give its slug or name (e.g. all_service_jacket, aluminium_weathered, pvc_jacket)", r.Input.Jacket)
 			} else {
@@ -148,7 +148,7 @@ func (s *Server) planImport(ctx context.Context, p store.Project, text []byte, p
 			add(i, field, "%s", msg)
 		}
 		if st.Output != nil {
-			impServiceLimits(plan, lib, i, add)
+			serviceLimits(plan, lib, i, add)
 		}
 	}
 	slices.SortStableFunc(plan.Problems, func(a, b linelist.RowError) int { return a.Row - b.Row })
@@ -177,9 +177,9 @@ func (s *Server) planImport(ctx context.Context, p store.Project, text []byte, p
 	return plan, nil
 }
 
-// impServiceLimits refuses a row whose layers would run outside their material's
+// serviceLimits refuses a row whose layers would run outside their material's
 // service temperatures (the solved faces of each layer against the material's limits).
-func impServiceLimits(plan *importPlan, lib *store.Library, i int, add func(int, string, string, ...any)) {
+func serviceLimits(plan *importPlan, lib *store.Library, i int, add func(int, string, string, ...any)) {
 	r, out := plan.Rows[i], plan.Results[i].Output
 	sys := r.System()
 	for j, l := range r.Input.Layers {
@@ -201,17 +201,17 @@ func impServiceLimits(plan *importPlan, lib *store.Library, i int, add func(int,
 	}
 }
 
-// impSlug folds a name typed in a spreadsheet towards a slug: "Mineral Fiber-Pipe" →
+// slugOf folds a name typed in a spreadsheet towards a slug: "Mineral Fiber-Pipe" →
 // "mineral_fiber_pipe".
-func impSlug(s string) string {
+func slugOf(s string) string {
 	s = strings.ToLower(strings.TrimSpace(s))
 	return strings.Join(strings.FieldsFunc(s, func(r rune) bool { return r == ' ' || r == '-' || r == '_' }), "_")
 }
 
-// impMaterialSlug resolves a material given by slug (any case and spacing) or by the
+// materialSlug resolves a material given by slug (any case and spacing) or by the
 // name of a built-in material.
-func impMaterialSlug(lib *store.Library, s string) (string, bool) {
-	for _, cand := range []string{s, impSlug(s)} {
+func materialSlug(lib *store.Library, s string) (string, bool) {
+	for _, cand := range []string{s, slugOf(s)} {
 		if _, ok := lib.Material(cand); ok {
 			return cand, true
 		}
@@ -226,9 +226,9 @@ func impMaterialSlug(lib *store.Library, s string) (string, bool) {
 	return "", false
 }
 
-// impJacketSlug resolves a jacket by slug or built-in name.
-func impJacketSlug(lib *store.Library, s string) (string, bool) {
-	for _, cand := range []string{s, impSlug(s)} {
+// jacketSlug resolves a jacket by slug or built-in name.
+func jacketSlug(lib *store.Library, s string) (string, bool) {
+	for _, cand := range []string{s, slugOf(s)} {
 		if _, ok := lib.Jacket(cand); ok {
 			return cand, true
 		}
@@ -241,12 +241,4 @@ func impJacketSlug(lib *store.Library, s string) (string, bool) {
 		}
 	}
 	return "", false
-}
-
-// impSystem is a project's display system (SI unless it says US).
-func impSystem(p store.Project) units.System {
-	if units.System(p.Units) == units.US {
-		return units.US
-	}
-	return units.SI
 }

@@ -23,7 +23,7 @@ import (
 	"lagwright/units"
 )
 
-func impNewProject(t *testing.T, st *store.Store, sys units.System) store.Project {
+func newImportProject(t *testing.T, st *store.Store, sys units.System) store.Project {
 	t.Helper()
 	p, err := st.CreateProject(context.Background(), store.Project{Name: "Import test plant", Units: string(sys)})
 	if err != nil {
@@ -32,23 +32,23 @@ func impNewProject(t *testing.T, st *store.Store, sys units.System) store.Projec
 	return p
 }
 
-type impAPIAnswer struct {
+type importAnswer struct {
 	Created int                 `json:"created"`
 	Errors  []linelist.RowError `json:"errors"`
 }
 
-func impPost(t *testing.T, h http.Handler, projectID int64, body string) (int, impAPIAnswer) {
+func postImport(t *testing.T, h http.Handler, projectID int64, body string) (int, importAnswer) {
 	t.Helper()
 	rec := do(t, h, "POST", fmt.Sprintf("/api/v1/projects/%d/import", projectID), strings.NewReader(body),
 		map[string]string{"Content-Type": "text/csv"})
-	var a impAPIAnswer
+	var a importAnswer
 	if err := json.Unmarshal(rec.Body.Bytes(), &a); err != nil {
 		t.Fatalf("answer %d is not JSON: %v\n%s", rec.Code, err, rec.Body)
 	}
 	return rec.Code, a
 }
 
-func impLines(t *testing.T, st *store.Store, projectID int64) []store.Line {
+func importedLines(t *testing.T, st *store.Store, projectID int64) []store.Line {
 	t.Helper()
 	lines, err := st.Lines(context.Background(), projectID)
 	if err != nil {
@@ -57,7 +57,7 @@ func impLines(t *testing.T, st *store.Store, projectID int64) []store.Line {
 	return lines
 }
 
-const impGood = "tag,service,location,pipe_size,length [m],elbows,operating_temp [°C],layer1_material,layer1_thickness [mm],jacket,duct_width [mm],duct_height [mm],steam_pressure [kPa g],notes\n" +
+const importGood = "tag,service,location,pipe_size,length [m],elbows,operating_temp [°C],layer1_material,layer1_thickness [mm],jacket,duct_width [mm],duct_height [mm],steam_pressure [kPa g],notes\n" +
 	"HW-1,Heating hot water,indoor,NPS 2,30,4,82,mineral_fiber_pipe_c547_t1,40,all_service_jacket,,,,first\n" +
 	"CHW-1,Chilled water,indoor,DN100,12.5,,6,Flexible elastomeric; Grade 1,25,pvc_jacket,,,,\n" +
 	"SA-1,Supply air,indoor,,20,,13,glass_blanket_c553,50,fsk,600,400,,\n" +
@@ -68,15 +68,15 @@ const impGood = "tag,service,location,pipe_size,length [m],elbows,operating_temp
 func TestImportAPIGoodFile(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
-	p := impNewProject(t, st, units.SI)
+	p := newImportProject(t, st, units.SI)
 	// The material name "Flexible elastomeric; Grade 1" is not a slug: use a real name.
-	body := strings.Replace(impGood, "Flexible elastomeric; Grade 1", "Flexible elastomeric, Grade 1", 1)
+	body := strings.Replace(importGood, "Flexible elastomeric; Grade 1", "Flexible elastomeric, Grade 1", 1)
 	body = strings.Replace(body, "Flexible elastomeric, Grade 1", `"Flexible elastomeric, Grade 1"`, 1)
-	code, a := impPost(t, s.Routes(), p.ID, body)
+	code, a := postImport(t, s.Routes(), p.ID, body)
 	if code != http.StatusOK || a.Created != 4 || len(a.Errors) != 0 {
 		t.Fatalf("import = %d %+v", code, a)
 	}
-	lines := impLines(t, st, p.ID)
+	lines := importedLines(t, st, p.ID)
 	if len(lines) != 4 {
 		t.Fatalf("%d lines saved, want 4", len(lines))
 	}
@@ -113,7 +113,7 @@ func TestImportAPIGoodFile(t *testing.T) {
 	if _, views := freshLines(t, s, p); len(views) != 4 {
 		t.Fatalf("%d lines, want 4", len(views))
 	}
-	after := impLines(t, st, p.ID)
+	after := importedLines(t, st, p.ID)
 	for i := range after {
 		if after[i].ResultHash != lines[i].ResultHash || !bytes.Equal(after[i].Result, lines[i].Result) {
 			t.Errorf("line %s was recomputed by the page", after[i].Tag)
@@ -125,7 +125,7 @@ func TestImportAPIGoodFile(t *testing.T) {
 func TestImportAPIBadRows(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
-	p := impNewProject(t, st, units.US)
+	p := newImportProject(t, st, units.US)
 	body := "tag,pipe_size,length [ft],operating_temp [°F],layer1_material,layer1_thickness [in],jacket\n" +
 		"OK-1,NPS 2,100,180,mineral_fiber_pipe_c547_t1,1-1/2,all_service_jacket\n" + // row 2: good
 		"B-3,NPS 2,100,180,unobtainium,1,all_service_jacket\n" + // row 3: unknown material
@@ -136,7 +136,7 @@ func TestImportAPIBadRows(t *testing.T) {
 		"OK-1,NPS 2,100,180,mineral_fiber_pipe_c547_t1,1,all_service_jacket\n" + // row 8: duplicate tag in the file
 		"B-9,NPS 2,100,180,mineral_fiber_pipe_c547_t1,1,tinfoil\n" + // row 9: unknown jacket
 		"B-10,NPS 2,100,,mineral_fiber_pipe_c547_t1,1,all_service_jacket\n" // row 10: no temperature
-	code, a := impPost(t, s.Routes(), p.ID, body)
+	code, a := postImport(t, s.Routes(), p.ID, body)
 	if code != http.StatusUnprocessableEntity || a.Created != 0 {
 		t.Fatalf("import = %d %+v, want 422", code, a)
 	}
@@ -162,7 +162,7 @@ func TestImportAPIBadRows(t *testing.T) {
 	if len(got) != len(want) {
 		t.Errorf("errors %+v\nwant exactly %d", a.Errors, len(want))
 	}
-	if n := len(impLines(t, st, p.ID)); n != 0 {
+	if n := len(importedLines(t, st, p.ID)); n != 0 {
 		t.Errorf("%d lines saved from a bad file, want 0", n)
 	}
 }
@@ -171,17 +171,17 @@ func TestImportDuplicateTagsAndMissingProject(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := impNewProject(t, st, units.SI)
+	p := newImportProject(t, st, units.SI)
 	one := "tag,pipe_size,operating_temp [°C],layer1_material,layer1_thickness [mm],jacket\nA-1,NPS 1,60,mineral_fiber_pipe_c547_t1,25,all_service_jacket\n"
-	if code, a := impPost(t, h, p.ID, one); code != 200 || a.Created != 1 {
+	if code, a := postImport(t, h, p.ID, one); code != 200 || a.Created != 1 {
 		t.Fatalf("first import = %d %+v", code, a)
 	}
-	code, a := impPost(t, h, p.ID, one+"A-2,NPS 1,60,mineral_fiber_pipe_c547_t1,25,all_service_jacket\n")
+	code, a := postImport(t, h, p.ID, one+"A-2,NPS 1,60,mineral_fiber_pipe_c547_t1,25,all_service_jacket\n")
 	if code != 422 || len(a.Errors) != 1 || a.Errors[0].Row != 2 || a.Errors[0].Field != "tag" ||
 		!strings.Contains(a.Errors[0].Message, "already used in this project") {
 		t.Errorf("second import = %d %+v, want 422 naming row 2's tag", code, a)
 	}
-	if n := len(impLines(t, st, p.ID)); n != 1 {
+	if n := len(importedLines(t, st, p.ID)); n != 1 {
 		t.Errorf("%d lines after the refused import, want 1", n)
 	}
 	rec := do(t, h, "POST", "/api/v1/projects/999999/import", strings.NewReader(one), nil)
@@ -201,7 +201,7 @@ func TestImportTemplateRoundTrip(t *testing.T) {
 	h := s.Routes()
 	for _, sys := range []units.System{units.SI, units.US} {
 		t.Run(string(sys), func(t *testing.T) {
-			p := impNewProject(t, st, sys)
+			p := newImportProject(t, st, sys)
 			rec := do(t, h, "GET", "/api/v1/import/template.csv?units="+string(sys), nil, nil)
 			if rec.Code != 200 || rec.Header().Get("Content-Type") != "text/csv; charset=utf-8" ||
 				!strings.Contains(rec.Header().Get("Content-Disposition"), "attachment") {
@@ -212,10 +212,10 @@ func TestImportTemplateRoundTrip(t *testing.T) {
 			if len(errs) > 0 || len(orig) != 1 {
 				t.Fatalf("template parses to %d rows, %v", len(orig), errs)
 			}
-			if code, a := impPost(t, h, p.ID, tmpl); code != 200 || a.Created != 1 {
+			if code, a := postImport(t, h, p.ID, tmpl); code != 200 || a.Created != 1 {
 				t.Fatalf("importing the template = %d %+v", code, a)
 			}
-			l := impLines(t, st, p.ID)[0]
+			l := importedLines(t, st, p.ID)[0]
 			own, fit, err := results.Decode(l)
 			if err != nil {
 				t.Fatal(err)
@@ -238,15 +238,15 @@ func TestImportTemplateRoundTrip(t *testing.T) {
 			}
 			xj, _ := json.Marshal(x.Input)
 			yj, _ := json.Marshal(y.Input)
-			if !impSameJSON(xj, yj, 1e-9) {
+			if !sameJSON(xj, yj, 1e-9) {
 				t.Errorf("input differs:\n%s\n%s", xj, yj)
 			}
 		})
 	}
 }
 
-// impSameJSON compares two JSON documents with numbers equal within a relative tolerance.
-func impSameJSON(a, b []byte, tol float64) bool {
+// sameJSON compares two JSON documents with numbers equal within a relative tolerance.
+func sameJSON(a, b []byte, tol float64) bool {
 	var x, y any
 	if json.Unmarshal(a, &x) != nil || json.Unmarshal(b, &y) != nil {
 		return false
@@ -285,8 +285,8 @@ func impSameJSON(a, b []byte, tol float64) bool {
 	return eq(x, y)
 }
 
-// impForm builds a multipart form with text fields.
-func impForm(t *testing.T, fields map[string]string) (*bytes.Buffer, string) {
+// importMultipart builds a multipart form with text fields.
+func importMultipart(t *testing.T, fields map[string]string) (*bytes.Buffer, string) {
 	t.Helper()
 	var b bytes.Buffer
 	mw := multipart.NewWriter(&b)
@@ -301,18 +301,18 @@ func impForm(t *testing.T, fields map[string]string) (*bytes.Buffer, string) {
 	return &b, mw.FormDataContentType()
 }
 
-var impHidden = regexp.MustCompile(`<input type="hidden" name="text" value="([^"]*)"`)
+var importHidden = regexp.MustCompile(`<input type="hidden" name="text" value="([^"]*)"`)
 
 // Rows pasted from a spreadsheet (tab-separated) preview and commit through the pages.
 func TestImportPastedRowsPreviewAndCommit(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := impNewProject(t, st, units.US)
+	p := newImportProject(t, st, units.US)
 	pasted := "Tag\tService\tPipe Size\tLength [ft]\tOperating_Temp [degF]\tLayer1_Material\tLayer1_Thickness [in]\tJacket\r\n" +
 		"HW-10\tHeating, supply\t1-1/2\"\t120\t180\tmineral_fiber_pipe_c547_t1\t1\tall_service_jacket\r\n" +
 		"HW-11\tHeating, return\tNPS 1-1/2\t120\t160\tmineral_fiber_pipe_c547_t1\t1\tall_service_jacket\r\n"
-	body, ct := impForm(t, map[string]string{"rows": pasted})
+	body, ct := importMultipart(t, map[string]string{"rows": pasted})
 	rec := do(t, h, "POST", fmt.Sprintf("/projects/%d/import", p.ID), body, map[string]string{"Content-Type": ct})
 	page := rec.Body.String()
 	if rec.Code != 200 {
@@ -324,10 +324,10 @@ func TestImportPastedRowsPreviewAndCommit(t *testing.T) {
 			t.Errorf("preview lacks %q", want)
 		}
 	}
-	if n := len(impLines(t, st, p.ID)); n != 0 {
+	if n := len(importedLines(t, st, p.ID)); n != 0 {
 		t.Fatalf("the preview saved %d lines", n)
 	}
-	m := impHidden.FindStringSubmatch(page)
+	m := importHidden.FindStringSubmatch(page)
 	if m == nil {
 		t.Fatal("preview has no hidden text to commit")
 	}
@@ -335,17 +335,17 @@ func TestImportPastedRowsPreviewAndCommit(t *testing.T) {
 	if text != pasted {
 		t.Errorf("hidden text differs from the pasted text:\n%q\n%q", text, pasted)
 	}
-	body, ct = impForm(t, map[string]string{"text": text})
+	body, ct = importMultipart(t, map[string]string{"text": text})
 	rec = do(t, h, "POST", fmt.Sprintf("/projects/%d/import/commit", p.ID), body, map[string]string{"Content-Type": ct})
 	if rec.Code != http.StatusSeeOther || rec.Header().Get("Location") != fmt.Sprintf("/projects/%d", p.ID) {
 		t.Fatalf("commit = %d %q\n%s", rec.Code, rec.Header().Get("Location"), rec.Body)
 	}
-	if lines := impLines(t, st, p.ID); len(lines) != 2 || lines[0].Service != "Heating, supply" {
+	if lines := importedLines(t, st, p.ID); len(lines) != 2 || lines[0].Service != "Heating, supply" {
 		t.Errorf("lines after commit: %+v", lines)
 	}
 
 	// A second preview of the same rows: every row refused by its tag, no commit button.
-	body, ct = impForm(t, map[string]string{"rows": pasted})
+	body, ct = importMultipart(t, map[string]string{"rows": pasted})
 	rec = do(t, h, "POST", fmt.Sprintf("/projects/%d/import", p.ID), body, map[string]string{"Content-Type": ct})
 	page = rec.Body.String()
 	if rec.Code != 422 || !strings.Contains(page, "2 of 2 rows have problems") || !strings.Contains(page, "Row 3, Tag") ||
@@ -353,7 +353,7 @@ func TestImportPastedRowsPreviewAndCommit(t *testing.T) {
 		t.Errorf("preview of duplicates = %d\n%s", rec.Code, page)
 	}
 	// Nothing given: the form again, with a message.
-	body, ct = impForm(t, map[string]string{"rows": ""})
+	body, ct = importMultipart(t, map[string]string{"rows": ""})
 	rec = do(t, h, "POST", fmt.Sprintf("/projects/%d/import", p.ID), body, map[string]string{"Content-Type": ct})
 	if rec.Code != 422 || !strings.Contains(rec.Body.String(), "Choose a CSV file") {
 		t.Errorf("empty preview = %d", rec.Code)
@@ -364,8 +364,8 @@ func htmlUnescape(s string) string {
 	return strings.NewReplacer("&lt;", "<", "&gt;", ">", "&#34;", `"`, "&#39;", "'", "&quot;", `"`, "&#x9;", "\t", "&#xA;", "\n", "&#xD;", "\r", "&#10;", "\n", "&#13;", "\r", "&#9;", "\t", "&amp;", "&").Replace(s)
 }
 
-// impGenerate writes n varied, valid lines (pipes hot and cold, ducts, steam).
-func impGenerate(n int) string {
+// generateRows writes n varied, valid lines (pipes hot and cold, ducts, steam).
+func generateRows(n int) string {
 	var b strings.Builder
 	b.WriteString("tag,service,location,pipe_size,length [m],elbows,valves,operating_temp [°C],steam_pressure [kPa g],layer1_material,layer1_thickness [mm],jacket,duct_width [mm],duct_height [mm]\n")
 	sizes := []string{"NPS 1/2", "NPS 1", "NPS 2", "NPS 4", "DN150", "CTS 3/4"}
@@ -393,8 +393,8 @@ func TestImportJobProgress(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := impNewProject(t, st, units.SI)
-	body, ct := impForm(t, map[string]string{"text": impGenerate(importJobRows + 100)})
+	p := newImportProject(t, st, units.SI)
+	body, ct := importMultipart(t, map[string]string{"text": generateRows(importJobRows + 100)})
 	rec := do(t, h, "POST", fmt.Sprintf("/projects/%d/import/commit", p.ID), body, map[string]string{"Content-Type": ct})
 	loc := rec.Header().Get("Location")
 	if rec.Code != http.StatusSeeOther || !strings.HasPrefix(loc, fmt.Sprintf("/projects/%d/import/jobs/", p.ID)) {
@@ -419,7 +419,7 @@ func TestImportJobProgress(t *testing.T) {
 	if !strings.Contains(frag, `data-phase="done"`) || !strings.Contains(frag, "600 lines imported") || strings.Contains(frag, "hx-get") {
 		t.Fatalf("final fragment:\n%s", frag)
 	}
-	if n := len(impLines(t, st, p.ID)); n != 600 {
+	if n := len(importedLines(t, st, p.ID)); n != 600 {
 		t.Errorf("%d lines saved, want 600", n)
 	}
 	full := do(t, h, "GET", loc, nil, nil)
@@ -442,7 +442,7 @@ func TestImport10000Lines(t *testing.T) {
 	s, _ := newServer(t, st)
 	h := s.Routes()
 	ctx := context.Background()
-	text := impGenerate(linelist.MaxRows)
+	text := generateRows(linelist.MaxRows)
 
 	t0 := time.Now()
 	rows, errs := linelist.Parse(strings.NewReader(text))
@@ -450,7 +450,7 @@ func TestImport10000Lines(t *testing.T) {
 	if len(rows) != linelist.MaxRows || len(errs) > 0 {
 		t.Fatalf("parse: %d rows, %v", len(rows), errs)
 	}
-	p := impNewProject(t, st, units.SI)
+	p := newImportProject(t, st, units.SI)
 	t0 = time.Now()
 	plan, err := s.planImport(ctx, p, []byte(text), nil)
 	if err != nil || !plan.OK() {
@@ -463,7 +463,7 @@ func TestImport10000Lines(t *testing.T) {
 	}
 	saved := time.Since(t0)
 
-	p2 := impNewProject(t, st, units.SI)
+	p2 := newImportProject(t, st, units.SI)
 	t0 = time.Now()
 	rec := httptest.NewRecorder()
 	h.ServeHTTP(rec, httptest.NewRequest("POST", fmt.Sprintf("/api/v1/projects/%d/import", p2.ID), strings.NewReader(text)))
@@ -472,7 +472,7 @@ func TestImport10000Lines(t *testing.T) {
 		t.Fatalf("import = %d %s", rec.Code, rec.Body)
 	}
 	for _, id := range []int64{p.ID, p2.ID} {
-		if n := len(impLines(t, st, id)); n != linelist.MaxRows {
+		if n := len(importedLines(t, st, id)); n != linelist.MaxRows {
 			t.Fatalf("project %d: %d lines saved", id, n)
 		}
 	}

@@ -1,7 +1,6 @@
 package handlers
 
 import (
-	"fmt"
 	"strings"
 
 	"lagwright/linelist"
@@ -16,16 +15,13 @@ const maxPrefill = 256 << 10
 // importJobRows: a commit of more rows than this runs in the background with progress.
 const importJobRows = 500
 
-func impProjectURL(id int64) string { return fmt.Sprintf("/projects/%d", id) }
-func impImportURL(id int64) string  { return fmt.Sprintf("/projects/%d/import", id) }
-
 // importView builds the import screen for project p; text and plan are those of a
 // preview (plan nil: the empty form).
 func (s *Server) importView(p store.Project, text string, plan *importPlan) web.ImportView {
-	sys := impSystem(p)
+	sys := projectSystem(p)
 	v := web.ImportView{
-		Assets: s.assets.urls, ProjectID: p.ID, ProjectName: p.Name, ProjectURL: impProjectURL(p.ID),
-		ActionURL: impImportURL(p.ID), CommitURL: impImportURL(p.ID) + "/commit",
+		Assets: s.assets.urls, ProjectID: p.ID, ProjectName: p.Name, ProjectURL: projectURL(p.ID),
+		ActionURL: importURL(p.ID), CommitURL: importURL(p.ID) + "/commit",
 		TemplateURL: "/api/v1/import/template.csv?units=" + string(sys),
 	}
 	if sys == units.US {
@@ -41,14 +37,14 @@ func (s *Server) importView(p store.Project, text string, plan *importPlan) web.
 		v.Text = text
 	}
 	if plan != nil {
-		v.Preview = impPreview(plan, text)
+		v.Preview = importPreviewView(plan, text)
 	}
 	return v
 }
 
-// impPreview shapes a plan for the screen: the good rows with their results, the bad
+// importPreviewView shapes a plan for the screen: the good rows with their results, the bad
 // ones with their problems, in file order.
-func impPreview(plan *importPlan, text string) *web.ImportPreview {
+func importPreviewView(plan *importPlan, text string) *web.ImportPreview {
 	sys := plan.Sys
 	pv := &web.ImportPreview{Lines: len(plan.Rows), HeatFlowLabel: units.Label(units.HeatFlowPerLength, sys),
 		Background: len(plan.Rows) > importJobRows}
@@ -67,7 +63,7 @@ func impPreview(plan *importPlan, text string) *web.ImportPreview {
 	var loss, gain float64
 	for i, r := range plan.Rows {
 		seen[r.Row] = true
-		vr := impRow(plan, r, sys)
+		vr := importRow(plan, r, sys)
 		if i < len(plan.Results) {
 			if o := plan.Results[i].Output; o != nil {
 				if o.HeatFlowWPerM != nil {
@@ -124,10 +120,10 @@ func sortRows(rows []web.ImportRow) {
 	}
 }
 
-// impRow formats a row's own values in the project's units.
-func impRow(plan *importPlan, r linelist.Row, sys units.System) web.ImportRow {
+// importRow formats a row's own values in the project's units.
+func importRow(plan *importPlan, r linelist.Row, sys units.System) web.ImportRow {
 	in := r.Input
-	vr := web.ImportRow{Row: r.Row, Tag: r.Tag, Service: r.Service, Jacket: impJacketName(plan, in.Jacket)}
+	vr := web.ImportRow{Row: r.Row, Tag: r.Tag, Service: r.Service, Jacket: jacketName(plan, in.Jacket)}
 	switch {
 	case in.Geometry == "duct" && in.DuctWidthMM != nil && in.DuctHeightMM != nil:
 		vr.Size = units.Format(units.Length, sys, *in.DuctWidthMM) + " × " + units.FormatUnit(units.Length, sys, *in.DuctHeightMM) + " duct"
@@ -156,7 +152,7 @@ func impRow(plan *importPlan, r linelist.Row, sys units.System) web.ImportRow {
 	}
 	var layers []string
 	for _, l := range in.Layers {
-		s := impMaterialName(plan, l.Material)
+		s := materialName(plan, l.Material)
 		if l.ThicknessMM != nil {
 			s = units.FormatUnit(units.Length, sys, *l.ThicknessMM) + " " + s
 		}
@@ -170,7 +166,7 @@ func impRow(plan *importPlan, r linelist.Row, sys units.System) web.ImportRow {
 	return vr
 }
 
-func impMaterialName(plan *importPlan, slug string) string {
+func materialName(plan *importPlan, slug string) string {
 	if plan.lib != nil {
 		if m, ok := plan.lib.Material(slug); ok {
 			return m.Name
@@ -179,7 +175,7 @@ func impMaterialName(plan *importPlan, slug string) string {
 	return slug
 }
 
-func impJacketName(plan *importPlan, slug string) string {
+func jacketName(plan *importPlan, slug string) string {
 	if plan.lib != nil && slug != "" {
 		if j, ok := plan.lib.Jacket(slug); ok {
 			return j.Name
@@ -188,8 +184,8 @@ func impJacketName(plan *importPlan, slug string) string {
 	return slug
 }
 
-// impProblems converts problems for the progress page.
-func impProblems(list []linelist.RowError) []web.ImportProblem {
+// importProblems converts problems for the progress page.
+func importProblems(list []linelist.RowError) []web.ImportProblem {
 	out := make([]web.ImportProblem, len(list))
 	for i, e := range list {
 		out[i] = web.ImportProblem{Row: e.Row, Field: e.Field, Message: e.Message}

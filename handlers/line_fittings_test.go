@@ -18,10 +18,10 @@ func TestLineFormFittingsAndSupports(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	base := fmt.Sprintf("/projects/%d", p.ID)
 
-	f := ptLineForm()
+	f := lineFormValuesFor()
 	f.Set("operating_temp_c", "6")
 	f.Set("length_m", "40")
 	f.Set("layers[0].thickness_mm", "25")
@@ -30,10 +30,10 @@ func TestLineFormFittingsAndSupports(t *testing.T) {
 	f.Set("fitting_cover.thickness_mm", "40")
 	f.Set("supports.kind", "clamp")
 	f.Set("supports.spacing_m", "2.5")
-	if rec := ptPost(t, h, base+"/lines", f, nil); rec.Code != http.StatusSeeOther {
+	if rec := postPage(t, h, base+"/lines", f, nil); rec.Code != http.StatusSeeOther {
 		t.Fatalf("save line = %d: %s", rec.Code, rec.Body)
 	}
-	l := ptLines(t, st, p.ID)[0]
+	l := projectLinesOf(t, st, p.ID)[0]
 	var in analysis.Input
 	_ = json.Unmarshal(l.Input, &in)
 	if in.FittingFinish == nil || in.FittingFinish.Valves != "bare" || in.FittingFinish.Elbows != "cover" ||
@@ -54,7 +54,7 @@ func TestLineFormFittingsAndSupports(t *testing.T) {
 	}
 	f.Set("fitting_finish.valves", "painted")
 	f.Set("tag", "CHW-2")
-	rec = ptPost(t, h, base+"/lines", f, nil)
+	rec = postPage(t, h, base+"/lines", f, nil)
 	if rec.Code != http.StatusUnprocessableEntity || !strings.Contains(rec.Body.String(), `must be &#34;insulated&#34;, &#34;cover&#34; or &#34;bare&#34;`) {
 		t.Errorf("bad finish = %d", rec.Code)
 	}

@@ -17,8 +17,8 @@ import (
 	"lagwright/units"
 )
 
-// ptLineForm is a chilled-water line typed in US units.
-func ptLineForm() url.Values {
+// lineFormValuesFor is a chilled-water line typed in US units.
+func lineFormValuesFor() url.Values {
 	return url.Values{
 		"tag": {"CHW-1"}, "service": {"Chilled water supply"}, "location": {"indoor"}, "exposure": {"exposed"},
 		"shape": {"pipe-horizontal"}, "pipe_size": {"NPS 2"}, "fluid": {"water"}, "operating_temp_c": {"44"},
@@ -29,7 +29,7 @@ func ptLineForm() url.Values {
 	}
 }
 
-func ptLines(t *testing.T, st *store.Store, pid int64) []store.Line {
+func projectLinesOf(t *testing.T, st *store.Store, pid int64) []store.Line {
 	t.Helper()
 	l, err := st.Lines(context.Background(), pid)
 	if err != nil {
@@ -38,13 +38,13 @@ func ptLines(t *testing.T, st *store.Store, pid int64) []store.Line {
 	return l
 }
 
-func ptNear(a, b, tol float64) bool { return math.Abs(a-b) <= tol }
+func nearValue(a, b, tol float64) bool { return math.Abs(a-b) <= tol }
 
 func TestLinePagesCreateEditDuplicateDelete(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "us")
+	p := createTestProject(t, st, "us")
 	base := fmt.Sprintf("/projects/%d", p.ID)
 
 	rec := do(t, h, "GET", base+"/lines/new", nil, nil)
@@ -54,18 +54,18 @@ func TestLinePagesCreateEditDuplicateDelete(t *testing.T) {
 		t.Fatalf("new line page = %d: lacks two layer rows, the live-results attributes or the size picker", rec.Code)
 	}
 
-	rec = ptPost(t, h, base+"/lines", ptLineForm(), nil)
+	rec = postPage(t, h, base+"/lines", lineFormValuesFor(), nil)
 	if rec.Code != http.StatusSeeOther {
 		t.Fatalf("save line = %d: %s", rec.Code, rec.Body)
 	}
-	lines := ptLines(t, st, p.ID)
+	lines := projectLinesOf(t, st, p.ID)
 	if len(lines) != 1 {
 		t.Fatalf("%d lines after save", len(lines))
 	}
 	var in analysis.Input
 	_ = json.Unmarshal(lines[0].Input, &in)
-	if in.PipeSize != "NPS 2" || len(in.Layers) != 1 || !ptNear(*in.Layers[0].ThicknessMM, 25.4, 1e-9) || // blank row ignored; 1 in = 25.4 mm exactly
-		!ptNear(*in.OperatingTempC, 6.666666667, 1e-6) || !ptNear(*in.LengthM, 36.576, 1e-9) { // 44 °F; 120 ft = 36.576 m exactly
+	if in.PipeSize != "NPS 2" || len(in.Layers) != 1 || !nearValue(*in.Layers[0].ThicknessMM, 25.4, 1e-9) || // blank row ignored; 1 in = 25.4 mm exactly
+		!nearValue(*in.OperatingTempC, 6.666666667, 1e-6) || !nearValue(*in.LengthM, 36.576, 1e-9) { // 44 °F; 120 ft = 36.576 m exactly
 		t.Errorf("stored input %s", lines[0].Input)
 	}
 	if lines[0].ResultHash == "" || len(lines[0].Result) == 0 || string(lines[0].Fittings) != `{"caps": 0, "tees": 0, "elbows": 4, "valves": 2, "reducers": 0, "strainers": 0, "flange_pairs": 0}` {
@@ -99,15 +99,15 @@ func TestLinePagesCreateEditDuplicateDelete(t *testing.T) {
 	lines[0].Version++
 
 	// Edit: change the thickness with a fraction and save.
-	f := ptLineForm()
+	f := lineFormValuesFor()
 	f.Set("version", fmt.Sprint(lines[0].Version))
 	f.Set("layers[0].thickness_mm", "1-1/2")
-	if rec := ptPost(t, h, lineURL, f, nil); rec.Code != http.StatusSeeOther {
+	if rec := postPage(t, h, lineURL, f, nil); rec.Code != http.StatusSeeOther {
 		t.Fatalf("edit line = %d: %s", rec.Code, rec.Body)
 	}
 	l, _ := st.Line(context.Background(), p.ID, lines[0].ID)
 	_ = json.Unmarshal(l.Input, &in)
-	if !ptNear(*in.Layers[0].ThicknessMM, 38.1, 1e-9) || l.Version != lines[0].Version+1 {
+	if !nearValue(*in.Layers[0].ThicknessMM, 38.1, 1e-9) || l.Version != lines[0].Version+1 {
 		t.Errorf("after edit: thickness %v, version %d", *in.Layers[0].ThicknessMM, l.Version)
 	}
 	if in.RelativeHumidityPct == nil || *in.RelativeHumidityPct != 85 || in.Criteria == nil || in.Criteria.Economic == nil || !*in.Criteria.Economic {
@@ -115,34 +115,34 @@ func TestLinePagesCreateEditDuplicateDelete(t *testing.T) {
 	}
 
 	// Duplicate (POST) opens the copy.
-	rec = ptPost(t, h, lineURL+"/duplicate", url.Values{}, nil)
+	rec = postPage(t, h, lineURL+"/duplicate", url.Values{}, nil)
 	if rec.Code != http.StatusSeeOther {
 		t.Fatalf("duplicate = %d", rec.Code)
 	}
-	lines = ptLines(t, st, p.ID)
+	lines = projectLinesOf(t, st, p.ID)
 	if len(lines) != 2 || lines[1].Tag != "CHW-1-copy" || string(lines[1].Input) != string(lines[0].Input) ||
 		rec.Header().Get("Location") != fmt.Sprintf("%s/lines/%d", base, lines[1].ID) {
 		t.Fatalf("after duplicate: %d lines, Location %q", len(lines), rec.Header().Get("Location"))
 	}
-	if ptPost(t, h, lineURL+"/duplicate", url.Values{}, nil); ptLines(t, st, p.ID)[2].Tag != "CHW-1-copy2" {
+	if postPage(t, h, lineURL+"/duplicate", url.Values{}, nil); projectLinesOf(t, st, p.ID)[2].Tag != "CHW-1-copy2" {
 		t.Errorf("second duplicate is not CHW-1-copy2")
 	}
 
 	// Delete: a confirm page without JS, then the POST.
 	copyURL := fmt.Sprintf("%s/lines/%d", base, lines[1].ID)
 	rec = do(t, h, "GET", copyURL+"/delete", nil, nil)
-	if rec.Code != 200 || !strings.Contains(rec.Body.String(), `action="`+copyURL+`/delete"`) || len(ptLines(t, st, p.ID)) != 3 {
+	if rec.Code != 200 || !strings.Contains(rec.Body.String(), `action="`+copyURL+`/delete"`) || len(projectLinesOf(t, st, p.ID)) != 3 {
 		t.Fatalf("delete confirm page = %d (and GET must not delete)", rec.Code)
 	}
-	rec = ptPost(t, h, copyURL+"/delete", url.Values{}, nil)
+	rec = postPage(t, h, copyURL+"/delete", url.Values{}, nil)
 	if rec.Code != http.StatusSeeOther || rec.Header().Get("Location") != base {
 		t.Errorf("delete = %d → %q", rec.Code, rec.Header().Get("Location"))
 	}
-	rec = ptPost(t, h, lineURL+"/delete", url.Values{}, map[string]string{"HX-Request": "true"})
+	rec = postPage(t, h, lineURL+"/delete", url.Values{}, map[string]string{"HX-Request": "true"})
 	if rec.Code != http.StatusNoContent || rec.Header().Get("HX-Redirect") != base {
 		t.Errorf("htmx delete = %d, HX-Redirect %q", rec.Code, rec.Header().Get("HX-Redirect"))
 	}
-	if n := len(ptLines(t, st, p.ID)); n != 1 {
+	if n := len(projectLinesOf(t, st, p.ID)); n != 1 {
 		t.Errorf("%d lines after two deletes, want 1", n)
 	}
 	if rec := do(t, h, "GET", copyURL, nil, nil); rec.Code != http.StatusNotFound {
@@ -154,7 +154,7 @@ func TestLineFormValidation(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "us")
+	p := createTestProject(t, st, "us")
 	base := fmt.Sprintf("/projects/%d", p.ID)
 
 	for _, c := range []struct {
@@ -176,11 +176,11 @@ func TestLineFormValidation(t *testing.T) {
 			[]string{"operating_temp_c", "criteria.heat_trace_factor"}, []string{`value="300"`, `value="5"`, `value="full" selected`}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			f := ptLineForm()
+			f := lineFormValuesFor()
 			for k, v := range c.set {
 				f.Set(k, v)
 			}
-			rec := ptPost(t, h, base+"/lines", f, nil)
+			rec := postPage(t, h, base+"/lines", f, nil)
 			body := rec.Body.String()
 			if rec.Code != http.StatusUnprocessableEntity {
 				t.Fatalf("= %d, want 422", rec.Code)
@@ -195,7 +195,7 @@ func TestLineFormValidation(t *testing.T) {
 					t.Errorf("typed input %s lost", k)
 				}
 			}
-			if n := len(ptLines(t, st, p.ID)); n != 0 {
+			if n := len(projectLinesOf(t, st, p.ID)); n != 0 {
 				t.Errorf("%d lines saved from an invalid form", n)
 			}
 		})
@@ -206,23 +206,23 @@ func TestLineFormVersionConflict(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	base := fmt.Sprintf("/projects/%d", p.ID)
-	if rec := ptPost(t, h, base+"/lines", ptLineForm(), nil); rec.Code != http.StatusSeeOther {
+	if rec := postPage(t, h, base+"/lines", lineFormValuesFor(), nil); rec.Code != http.StatusSeeOther {
 		t.Fatalf("save = %d", rec.Code)
 	}
-	l := ptLines(t, st, p.ID)[0]
+	l := projectLinesOf(t, st, p.ID)[0]
 	lineURL := fmt.Sprintf("%s/lines/%d", base, l.ID)
 	// Someone else saves first (through the API).
 	rec := do(t, h, "PATCH", "/api/v1"+lineURL, strings.NewReader(fmt.Sprintf(`{"version": %d, "service": "theirs"}`, l.Version)), nil)
 	if rec.Code != 200 {
 		t.Fatalf("API patch = %d: %s", rec.Code, rec.Body)
 	}
-	f := ptLineForm()
+	f := lineFormValuesFor()
 	f.Set("version", fmt.Sprint(l.Version))
 	f.Set("service", "mine, typed carefully")
 	f.Set("layers[0].thickness_mm", "32")
-	rec = ptPost(t, h, lineURL, f, nil)
+	rec = postPage(t, h, lineURL, f, nil)
 	body := rec.Body.String()
 	if rec.Code != http.StatusConflict || !strings.Contains(body, `data-testid="conflict"`) ||
 		!strings.Contains(body, `value="mine, typed carefully"`) || !strings.Contains(body, `value="32"`) ||
@@ -239,16 +239,16 @@ func TestLineResultsFragment(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "us")
+	p := createTestProject(t, st, "us")
 	target := fmt.Sprintf("/projects/%d/lines/results", p.ID)
-	f := ptLineForm()
+	f := lineFormValuesFor()
 	f.Set("fluid", "steam")
 	f.Set("operating_temp_c", "")
 	f.Set("steam_gauge_pressure_kpa", "100")
 	f.Set("layers[0].material", "mineral_fiber_pipe_c547_t1")
 	f.Set("layers[0].thickness_mm", "1/2")
 	f.Set("jacket", "aluminium_new")
-	rec := ptPost(t, h, target, f, map[string]string{"HX-Request": "true"})
+	rec := postPage(t, h, target, f, map[string]string{"HX-Request": "true"})
 	body := rec.Body.String()
 	if rec.Code != 200 || strings.Contains(body, "<html") {
 		t.Fatalf("fragment = %d (whole page: %v)", rec.Code, strings.Contains(body, "<html"))
@@ -259,17 +259,17 @@ func TestLineResultsFragment(t *testing.T) {
 		}
 	}
 	// Without JS the Calculate button re-renders the whole page; nothing saved.
-	rec = ptPost(t, h, target, f, nil)
+	rec = postPage(t, h, target, f, nil)
 	if rec.Code != 200 || !strings.Contains(rec.Body.String(), "<html") || !strings.Contains(rec.Body.String(), `value="100"`) {
 		t.Errorf("calculate = %d, want the whole page with the typed values", rec.Code)
 	}
 	// Errors in the fragment: 200 (htmx swaps 2xx only), listed.
 	f.Set("layers[0].thickness_mm", "x")
-	rec = ptPost(t, h, target, f, map[string]string{"HX-Request": "true"})
+	rec = postPage(t, h, target, f, map[string]string{"HX-Request": "true"})
 	if rec.Code != 200 || !strings.Contains(rec.Body.String(), `data-testid="result-problems"`) {
 		t.Errorf("fragment with errors = %d", rec.Code)
 	}
-	if n := len(ptLines(t, st, p.ID)); n != 0 {
+	if n := len(projectLinesOf(t, st, p.ID)); n != 0 {
 		t.Errorf("results endpoint saved %d lines", n)
 	}
 }
@@ -320,7 +320,7 @@ func TestFormUnitParsing(t *testing.T) {
 			case float64:
 				got = x
 			}
-			if !ptNear(got, c.want, 1e-6*math.Max(1, math.Abs(c.want))) {
+			if !nearValue(got, c.want, 1e-6*math.Max(1, math.Abs(c.want))) {
 				t.Errorf("parse(%q) = %.9g, want %.9g", c.in, got, c.want)
 			}
 			// What the form shows for the stored value reads back: near it on its own
@@ -330,7 +330,7 @@ func TestFormUnitParsing(t *testing.T) {
 			if err != nil {
 				t.Fatalf("format(%g) does not read back: %v", got, err)
 			}
-			if bf, ok := back.(float64); ok && !ptNear(bf, got, 5e-3*math.Max(1, math.Abs(got))) {
+			if bf, ok := back.(float64); ok && !nearValue(bf, got, 5e-3*math.Max(1, math.Abs(got))) {
 				t.Errorf("format/parse round trip %.12g → %q → %.12g", got, shown, bf)
 			}
 			if _, isInt := back.(int); !isInt {

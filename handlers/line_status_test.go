@@ -22,7 +22,7 @@ func TestDemoBadgesAgreeWithChecks(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	rec := ptPost(t, h, "/projects/demo", url.Values{}, nil)
+	rec := postPage(t, h, "/projects/demo", url.Values{}, nil)
 	if rec.Code != http.StatusSeeOther {
 		t.Fatalf("demo = %d", rec.Code)
 	}

@@ -15,8 +15,8 @@ import (
 )
 
 const (
-	matBlankRows   = 6  // blank k-point rows offered below the filled ones
-	matMaxFormRows = 60 // rows read from a post, filled or blank
+	blankRows   = 6  // blank k-point rows offered below the filled ones
+	maxFormRows = 60 // rows read from a post, filled or blank
 )
 
 // materialForm is a custom-material form as typed: the values by field name, the k
@@ -29,7 +29,7 @@ type materialForm struct {
 	errors       map[string]string
 }
 
-var matTextFields = []string{"slug", "name", "category", "spec", "source", "units", "min_temp", "max_temp",
+var textFields = []string{"slug", "name", "category", "spec", "source", "units", "min_temp", "max_temp",
 	"thicknesses", "max_layer", "compression_pct", "k_paste", "version"}
 
 // readMaterialForm reads a posted form.
@@ -38,7 +38,7 @@ func readMaterialForm(r *http.Request) (*materialForm, error) {
 		return nil, err
 	}
 	f := &materialForm{values: map[string]string{}, errors: map[string]string{}}
-	for _, k := range matTextFields {
+	for _, k := range textFields {
 		f.values[k] = strings.TrimSpace(r.PostForm.Get(k))
 	}
 	if f.values["units"] != "us" {
@@ -46,7 +46,7 @@ func readMaterialForm(r *http.Request) (*materialForm, error) {
 	}
 	f.compressible = r.PostForm.Get("compressible") != ""
 	ts, ks := r.PostForm["kp_t"], r.PostForm["kp_k"]
-	for i := 0; i < max(len(ts), len(ks)) && i < matMaxFormRows; i++ {
+	for i := 0; i < max(len(ts), len(ks)) && i < maxFormRows; i++ {
 		var row web.MaterialKInput
 		if i < len(ts) {
 			row.Mean = strings.TrimSpace(ts[i])
@@ -64,42 +64,42 @@ func materialFormOf(m store.Material, sys units.System) *materialForm {
 	f := &materialForm{values: map[string]string{
 		"slug": m.Slug, "name": m.Name, "category": m.Category, "spec": m.Spec, "source": m.Source,
 		"units":    string(sys),
-		"min_temp": matPlain(units.FromSI(units.Temp, sys, m.MinC)), "max_temp": matPlain(units.FromSI(units.Temp, sys, m.MaxC)),
-		"max_layer": matLength(m.MaxLayerMM, sys), "version": strconv.Itoa(m.Version),
+		"min_temp": plainNumber(units.FromSI(units.Temp, sys, m.MinC)), "max_temp": plainNumber(units.FromSI(units.Temp, sys, m.MaxC)),
+		"max_layer": thicknessText(m.MaxLayerMM, sys), "version": strconv.Itoa(m.Version),
 	}, compressible: m.Compressible, errors: map[string]string{}}
 	if m.Compressible {
-		f.values["compression_pct"] = matPlain(m.CompressionPct)
+		f.values["compression_pct"] = plainNumber(m.CompressionPct)
 	}
 	th := make([]string, len(m.ThicknessesMM))
 	for i, t := range m.ThicknessesMM {
-		th[i] = matLength(t, sys)
+		th[i] = thicknessText(t, sys)
 	}
 	f.values["thicknesses"] = strings.Join(th, ", ")
 	for _, p := range m.KPoints {
 		f.rows = append(f.rows, web.MaterialKInput{
-			Mean: matPlain(units.FromSI(units.Temp, sys, p.MeanC)), K: matPlain(units.FromSI(units.Conductivity, sys, p.K))})
+			Mean: plainNumber(units.FromSI(units.Temp, sys, p.MeanC)), K: plainNumber(units.FromSI(units.Conductivity, sys, p.K))})
 	}
 	return f
 }
 
-// matPlain writes a number as typed: at most 6 significant digits, no exponent, so
+// plainNumber writes a number as typed: at most 6 significant digits, no exponent, so
 // SI data round-trips and converted data reads cleanly.
-func matPlain(v float64) string {
+func plainNumber(v float64) string {
 	r, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', 6, 64), 64)
 	return strconv.FormatFloat(r, 'f', -1, 64)
 }
 
-// matLength writes a thickness in sys: mm, or inches as a fraction where exact.
-func matLength(mm float64, sys units.System) string {
+// thicknessText writes a thickness in sys: mm, or inches as a fraction where exact.
+func thicknessText(mm float64, sys units.System) string {
 	if sys == units.US {
 		return units.Format(units.Length, units.US, mm)
 	}
-	return matPlain(mm)
+	return plainNumber(mm)
 }
 
-// matHundredth rounds a length to 0.01 mm, as the catalog does, so that 1-1/2 in
+// hundredth rounds a length to 0.01 mm, as the catalog does, so that 1-1/2 in
 // reads 38.1 mm and not 38.099999999999994.
-func matHundredth(mm float64) float64 { return math.Round(mm*100) / 100 }
+func hundredth(mm float64) float64 { return math.Round(mm*100) / 100 }
 
 // kOrigin says where a k point came from: a row (index) or a pasted line (number).
 type kOrigin struct {
@@ -130,7 +130,7 @@ func (f *materialForm) material() (store.Material, []kOrigin) {
 	}
 	m.MinC = num("min_temp", units.Temp)
 	m.MaxC = num("max_temp", units.Temp)
-	m.MaxLayerMM = matHundredth(num("max_layer", units.Length))
+	m.MaxLayerMM = hundredth(num("max_layer", units.Length))
 	if f.compressible {
 		if f.values["compression_pct"] == "" {
 			f.values["compression_pct"] = "0"
@@ -153,7 +153,7 @@ func (f *materialForm) material() (store.Material, []kOrigin) {
 			f.errors["thicknesses"] = fmt.Sprintf("thickness %d: %v", i+1, err)
 			continue
 		}
-		m.ThicknessesMM = append(m.ThicknessesMM, matHundredth(v))
+		m.ThicknessesMM = append(m.ThicknessesMM, hundredth(v))
 	}
 
 	var origins []kOrigin
@@ -162,7 +162,7 @@ func (f *materialForm) material() (store.Material, []kOrigin) {
 		if row.Mean == "" && row.K == "" {
 			continue
 		}
-		t, k, err := matKPoint(sys, row.Mean, row.K)
+		t, k, err := kPointRow(sys, row.Mean, row.K)
 		if err != nil {
 			row.Err = err.Error()
 			continue
@@ -176,7 +176,7 @@ func (f *materialForm) material() (store.Material, []kOrigin) {
 		if line == "" {
 			continue
 		}
-		cols := matColumns(line)
+		cols := materialColumns(line)
 		if header && len(cols) > 0 && !strings.ContainsRune("0123456789+-−.", []rune(cols[0])[0]) {
 			header = false // a column heading pasted with the table
 			continue
@@ -186,7 +186,7 @@ func (f *materialForm) material() (store.Material, []kOrigin) {
 			f.errors["k_paste"] = fmt.Sprintf("line %d: give two columns, mean temperature and k", n+1)
 			continue
 		}
-		t, k, err := matKPoint(sys, cols[0], cols[1])
+		t, k, err := kPointRow(sys, cols[0], cols[1])
 		if err != nil {
 			f.errors["k_paste"] = fmt.Sprintf("line %d: %v", n+1, err)
 			continue
@@ -197,8 +197,8 @@ func (f *materialForm) material() (store.Material, []kOrigin) {
 	return m, origins
 }
 
-// matColumns splits a pasted line on tabs, else semicolons, else commas, else spaces.
-func matColumns(line string) []string {
+// materialColumns splits a pasted line on tabs, else semicolons, else commas, else spaces.
+func materialColumns(line string) []string {
 	var cols []string
 	switch {
 	case strings.Contains(line, "\t"):
@@ -219,8 +219,8 @@ func matColumns(line string) []string {
 	return out
 }
 
-// matKPoint reads one (mean temperature, k) pair.
-func matKPoint(sys units.System, mean, k string) (float64, float64, error) {
+// kPointRow reads one (mean temperature, k) pair.
+func kPointRow(sys units.System, mean, k string) (float64, float64, error) {
 	if mean == "" || k == "" {
 		return 0, 0, fmt.Errorf("give both the mean temperature and k")
 	}
@@ -235,8 +235,8 @@ func matKPoint(sys units.System, mean, k string) (float64, float64, error) {
 	return t, kv, nil
 }
 
-// matFormKey is the form field that shows a store field's problem.
-var matFormKey = map[string]string{
+// formKey is the form field that shows a store field's problem.
+var formKey = map[string]string{
 	"min_temp_c": "min_temp", "max_temp_c": "max_temp", "thicknesses_mm": "thicknesses", "max_layer_mm": "max_layer",
 }
 
@@ -272,8 +272,8 @@ func (f *materialForm) addStoreErrors(fe field.Errors, origins []kOrigin) {
 			}
 		case field == "thicknesses_mm" && idx >= 0:
 			set("thicknesses", fmt.Sprintf("thickness %d: %s", idx+1, msg))
-		case matFormKey[field] != "":
-			set(matFormKey[field], msg)
+		case formKey[field] != "":
+			set(formKey[field], msg)
 		default:
 			set(field, msg)
 		}
@@ -293,7 +293,7 @@ func (f *materialForm) hasErrors() bool {
 	return false
 }
 
-// view renders the form. Rows keep what was typed, with at least matBlankRows blank
+// view renders the form. Rows keep what was typed, with at least blankRows blank
 // rows after the last filled one.
 func (s *Server) materialFormView(f *materialForm, editing bool, message string) web.MaterialFormView {
 	rows := append([]web.MaterialKInput(nil), f.rows...)
@@ -303,7 +303,7 @@ func (s *Server) materialFormView(f *materialForm, editing bool, message string)
 			last = i
 		}
 	}
-	for len(rows) < last+1+matBlankRows {
+	for len(rows) < last+1+blankRows {
 		rows = append(rows, web.MaterialKInput{})
 	}
 	v := web.MaterialFormView{
@@ -312,8 +312,8 @@ func (s *Server) materialFormView(f *materialForm, editing bool, message string)
 	}
 	if editing {
 		v.Title = "Edit " + f.values["name"]
-		v.Action = matHref(f.values["slug"], "/edit")
-		v.CancelHref = matHref(f.values["slug"], "")
+		v.Action = materialHref(f.values["slug"], "/edit")
+		v.CancelHref = materialHref(f.values["slug"], "")
 	} else {
 		v.Title = "New custom material"
 		v.Action = "/materials/new"

@@ -24,7 +24,7 @@ func (s *Server) materialNew(w http.ResponseWriter, r *http.Request) {
 			return
 		}
 		f = materialFormOf(m, units.SI)
-		f.values["slug"] = matCopySlug(m.Slug)
+		f.values["slug"] = copySlug(m.Slug)
 		f.values["name"] = m.Name + " (custom)"
 		f.values["source"] = "adjusted from the built-in " + m.Slug + ": " + m.Source
 		if !m.Builtin {
@@ -36,7 +36,7 @@ func (s *Server) materialNew(w http.ResponseWriter, r *http.Request) {
 	s.renderMaterialForm(w, r, f, false, "", http.StatusOK)
 }
 
-func matCopySlug(slug string) string {
+func copySlug(slug string) string {
 	if len(slug) > 52 {
 		slug = slug[:52]
 	}

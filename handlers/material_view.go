@@ -15,36 +15,36 @@ import (
 	"lagwright/web"
 )
 
-// matKRefC is the mean temperature at which the list compares materials: 75 °F
+// kRefC is the mean temperature at which the list compares materials: 75 °F
 // (23.9 °C), the rating temperature of the ASTM tables.
-var matKRefC = catalog.FToC(75)
+var kRefC = catalog.FToC(75)
 
-// matMinus writes a number with a typographic minus sign.
-func matMinus(s string) string {
+// unicodeMinus writes a number with a typographic minus sign.
+func unicodeMinus(s string) string {
 	if strings.HasPrefix(s, "-") {
 		return "−" + s[1:]
 	}
 	return s
 }
 
-// matRound writes v with the given decimals and a typographic minus.
-func matRound(v float64, decimals int) string {
+// roundTo writes v with the given decimals and a typographic minus.
+func roundTo(v float64, decimals int) string {
 	s := strconv.FormatFloat(v, 'f', decimals, 64)
 	if strings.Trim(s, "-0.") == "" {
 		s = strings.TrimPrefix(s, "-")
 	}
-	return matMinus(s)
+	return unicodeMinus(s)
 }
 
-// matServiceRange gives a service range in °C and in °F, to whole degrees.
-func matServiceRange(minC, maxC float64) (c, f string) {
-	c = matRound(minC, 0) + " to " + matRound(maxC, 0) + " °C"
-	f = matRound(catalog.CToF(minC), 0) + " to " + matRound(catalog.CToF(maxC), 0) + " °F"
+// serviceRange gives a service range in °C and in °F, to whole degrees.
+func serviceRange(minC, maxC float64) (c, f string) {
+	c = roundTo(minC, 0) + " to " + roundTo(maxC, 0) + " °C"
+	f = roundTo(catalog.CToF(minC), 0) + " to " + roundTo(catalog.CToF(maxC), 0) + " °F"
 	return c, f
 }
 
-// matKCurve is a material's k points as the calculation's curve.
-func matKCurve(m catalog.Material) calc.KCurve {
+// kCurveView is a material's k points as the calculation's curve.
+func kCurveView(m catalog.Material) calc.KCurve {
 	c := make(calc.KCurve, len(m.KPoints))
 	for i, p := range m.KPoints {
 		c[i] = calc.KPoint{MeanC: p.MeanC, K: p.K}
@@ -52,14 +52,14 @@ func matKCurve(m catalog.Material) calc.KCurve {
 	return c
 }
 
-func matHref(slug string, suffix string) templ.SafeURL {
+func materialHref(slug string, suffix string) templ.SafeURL {
 	return templ.SafeURL("/materials/" + url.PathEscape(slug) + suffix)
 }
 
-// matThickness writes a thickness in mm with its inch equivalent.
+// thicknessValue writes a thickness in mm with its inch equivalent.
 // A thickness within 0.01 mm of a whole eighth of an inch (the catalog rounds 3/8 in
 // to 9.53 mm) is written as that fraction.
-func matThickness(mm float64) string {
+func thicknessValue(mm float64) string {
 	in := mm
 	if eighth := math.Round(mm/25.4*8) / 8 * 25.4; math.Abs(eighth-mm) <= 0.01 {
 		in = eighth
@@ -77,15 +77,15 @@ func (s *Server) materialsView(list []store.Material, notice string) web.Materia
 		if !ok {
 			i = len(v.Groups)
 			index[m.Category] = i
-			v.Groups = append(v.Groups, web.MaterialGroup{Category: m.Category, ID: "cat-" + matAnchor(m.Category)})
+			v.Groups = append(v.Groups, web.MaterialGroup{Category: m.Category, ID: "cat-" + materialAnchor(m.Category)})
 		}
-		k, beyond := matKCurve(m.Material).At(matKRefC)
+		k, beyond := kCurveView(m.Material).At(kRefC)
 		row := web.MaterialRow{
-			Slug: m.Slug, Name: m.Name, Spec: m.Spec, Href: matHref(m.Slug, ""),
+			Slug: m.Slug, Name: m.Name, Spec: m.Spec, Href: materialHref(m.Slug, ""),
 			KSI: units.Format(units.Conductivity, units.SI, k), KUS: units.Format(units.Conductivity, units.US, k),
 			KExtended: beyond, Builtin: m.Builtin,
 		}
-		row.ServiceC, row.ServiceF = matServiceRange(m.MinC, m.MaxC)
+		row.ServiceC, row.ServiceF = serviceRange(m.MinC, m.MaxC)
 		v.Groups[i].Rows = append(v.Groups[i].Rows, row)
 	}
 	for _, g := range v.Groups {
@@ -110,8 +110,8 @@ func (s *Server) materialsView(list []store.Material, notice string) web.Materia
 	return v
 }
 
-// matAnchor makes an id from a category name.
-func matAnchor(s string) string {
+// materialAnchor makes an id from a category name.
+func materialAnchor(s string) string {
 	var b strings.Builder
 	for _, r := range strings.ToLower(s) {
 		switch {
@@ -129,28 +129,28 @@ func (s *Server) materialPageView(m store.Material, sys units.System, notice str
 	v := web.MaterialPageView{
 		Assets: s.assets.urls, Slug: m.Slug, Name: m.Name, Category: m.Category, Spec: m.Spec, Form: m.Form,
 		Source: m.Source, Builtin: m.Builtin, Version: m.Version, Notice: notice,
-		MaxLayer: matThickness(m.MaxLayerMM), Chart: matKChart(m.Material, sys),
-		EditHref: matHref(m.Slug, "/edit"), DeleteHref: matHref(m.Slug, "/delete"),
+		MaxLayer: thicknessValue(m.MaxLayerMM), Chart: kChart(m.Material, sys),
+		EditHref: materialHref(m.Slug, "/edit"), DeleteHref: materialHref(m.Slug, "/delete"),
 		CopyHref: templ.SafeURL("/materials/new?from=" + url.QueryEscape(m.Slug)),
 	}
-	v.ServiceC, v.ServiceF = matServiceRange(m.MinC, m.MaxC)
+	v.ServiceC, v.ServiceF = serviceRange(m.MinC, m.MaxC)
 	for _, p := range m.KPoints {
 		v.KRows = append(v.KRows, web.MaterialKRow{
-			MeanC: matRound(p.MeanC, 1), MeanF: matRound(catalog.CToF(p.MeanC), 1),
+			MeanC: roundTo(p.MeanC, 1), MeanF: roundTo(catalog.CToF(p.MeanC), 1),
 			KSI: units.Format(units.Conductivity, units.SI, p.K), KUS: units.Format(units.Conductivity, units.US, p.K),
 		})
 	}
 	for _, t := range m.ThicknessesMM {
-		v.Thicknesses = append(v.Thicknesses, matThickness(t))
+		v.Thicknesses = append(v.Thicknesses, thicknessValue(t))
 	}
 	if m.Compressible {
 		v.Compression = "yes: counted at " + strconv.FormatFloat(100-m.CompressionPct, 'f', -1, 64) +
 			" % of its nominal thickness (" + strconv.FormatFloat(m.CompressionPct, 'f', -1, 64) + " % installed compression)"
 	}
 	if sys == units.US {
-		v.UnitsHref, v.UnitsLabel = matHref(m.Slug, ""), "Chart in °C and W/m·K"
+		v.UnitsHref, v.UnitsLabel = materialHref(m.Slug, ""), "Chart in °C and W/m·K"
 	} else {
-		v.UnitsHref, v.UnitsLabel = matHref(m.Slug, "?units=us"), "Chart in °F and Btu·in/h·ft²·°F"
+		v.UnitsHref, v.UnitsLabel = materialHref(m.Slug, "?units=us"), "Chart in °F and Btu·in/h·ft²·°F"
 	}
 	return v
 }
@@ -161,9 +161,9 @@ const (
 	kcLeft, kcRight, kcTop, kcBt = 76.0, 620.0, 14.0, 326.0
 )
 
-// matTicks spans lo…hi with about n ticks at 1, 2, 2.5 or 5 × 10^k, widened to whole
+// kTicks spans lo…hi with about n ticks at 1, 2, 2.5 or 5 × 10^k, widened to whole
 // ticks, and returns the range, the tick values and the decimals their labels need.
-func matTicks(lo, hi float64, n int) (min, max float64, ticks []float64, decimals int) {
+func kTicks(lo, hi float64, n int) (min, max float64, ticks []float64, decimals int) {
 	if !(hi > lo) {
 		lo, hi = lo-1, hi+1
 	}
@@ -191,11 +191,11 @@ func matTicks(lo, hi float64, n int) (min, max float64, ticks []float64, decimal
 	return min, max, ticks, decimals
 }
 
-// matKChart lays out the k-versus-mean-temperature chart of m in sys: the published
+// kChart lays out the k-versus-mean-temperature chart of m in sys: the published
 // points, the end segments extended over the rest of the service range (by the
 // calculation's own rule, calc.KCurve.At), and the service range shaded.
-func matKChart(m catalog.Material, sys units.System) web.KChartView {
-	curve := matKCurve(m)
+func kChart(m catalog.Material, sys units.System) web.KChartView {
+	curve := kCurveView(m)
 	tx := func(c float64) float64 { return units.FromSI(units.Temp, sys, c) }
 	ky := func(k float64) float64 { return units.FromSI(units.Conductivity, sys, k) }
 	first, last := m.KPoints[0].MeanC, m.KPoints[len(m.KPoints)-1].MeanC
@@ -227,8 +227,8 @@ func matKChart(m catalog.Material, sys units.System) web.KChartView {
 		kMax = math.Max(kMax, p.y)
 	}
 
-	xMin, xMax, xTicks, xDec := matTicks(tx(loC), tx(hiC), 7)
-	yMin, yMax, yTicks, yDec := matTicks(0, kMax, 6)
+	xMin, xMax, xTicks, xDec := kTicks(tx(loC), tx(hiC), 7)
+	yMin, yMax, yTicks, yDec := kTicks(0, kMax, 6)
 	px := func(x float64) float64 { return kcLeft + (x-xMin)/(xMax-xMin)*(kcRight-kcLeft) }
 	py := func(y float64) float64 { return kcBt - (y-yMin)/(yMax-yMin)*(kcBt-kcTop) }
 	poly := func(pts []pt) string {
@@ -246,20 +246,20 @@ func matKChart(m catalog.Material, sys units.System) web.KChartView {
 		W: kcW, H: kcH, Left: kcLeft, Right: kcRight, Top: kcTop, Bottom: kcBt,
 		HasService: m.MaxC > m.MinC,
 		ServiceX0:  px(tx(m.MinC)), ServiceX1: px(tx(m.MaxC)),
-		ServiceLabel: "service range " + matRound(tx(m.MinC), 0) + " to " + matRound(tx(m.MaxC), 0) + " " + tempUnit,
+		ServiceLabel: "service range " + roundTo(tx(m.MinC), 0) + " to " + roundTo(tx(m.MaxC), 0) + " " + tempUnit,
 	}
 	for _, t := range xTicks {
-		c.XTicks = append(c.XTicks, web.KChartTick{Pos: px(t), Label: matRound(t, xDec)})
+		c.XTicks = append(c.XTicks, web.KChartTick{Pos: px(t), Label: roundTo(t, xDec)})
 	}
 	for _, t := range yTicks {
-		c.YTicks = append(c.YTicks, web.KChartTick{Pos: py(t), Label: matRound(t, yDec)})
+		c.YTicks = append(c.YTicks, web.KChartTick{Pos: py(t), Label: roundTo(t, yDec)})
 	}
 	var line []pt
 	for _, p := range m.KPoints {
 		q := pt{tx(p.MeanC), ky(p.K)}
 		line = append(line, q)
 		c.Dots = append(c.Dots, web.KChartDot{X: px(q.x), Y: py(q.y),
-			Label: matRound(q.x, 1) + " " + tempUnit + ": " + units.Format(units.Conductivity, sys, p.K) + " " + kUnit})
+			Label: roundTo(q.x, 1) + " " + tempUnit + ": " + units.Format(units.Conductivity, sys, p.K) + " " + kUnit})
 	}
 	c.Line = poly(line)
 	if len(extLow) > 0 {

@@ -15,7 +15,7 @@ import (
 	"lagwright/store/storetest"
 )
 
-func ptJSON(t *testing.T, h http.Handler, method, target, body string) (int, map[string]any) {
+func getJSON(t *testing.T, h http.Handler, method, target, body string) (int, map[string]any) {
 	t.Helper()
 	rec := do(t, h, method, target, strings.NewReader(body), map[string]string{"Content-Type": "application/json"})
 	var m map[string]any
@@ -31,8 +31,8 @@ func ptJSON(t *testing.T, h http.Handler, method, target, body string) (int, map
 	return rec.Code, m
 }
 
-// ptFields lists the fields named in a JSON error answer.
-func ptFields(m map[string]any) []string {
+// formFields lists the fields named in a JSON error answer.
+func formFields(m map[string]any) []string {
 	var out []string
 	list, _ := m["errors"].([]any)
 	for _, e := range list {
@@ -41,7 +41,7 @@ func ptFields(m map[string]any) []string {
 	return out
 }
 
-func ptHas(list []string, s string) bool {
+func hasText(list []string, s string) bool {
 	for _, x := range list {
 		if x == s {
 			return true
@@ -55,7 +55,7 @@ func TestProjectAPI(t *testing.T) {
 	s, _ := newServer(t, st)
 	h := s.Routes()
 
-	code, p := ptJSON(t, h, "POST", "/api/v1/projects", `{"name": "API plant", "units": "us", "settings": {"indoor": {"ambient_temp_c": 22}}}`)
+	code, p := getJSON(t, h, "POST", "/api/v1/projects", `{"name": "API plant", "units": "us", "settings": {"indoor": {"ambient_temp_c": 22}}}`)
 	if code != http.StatusCreated || p["name"] != "API plant" || p["version"] != 1.0 {
 		t.Fatalf("create = %d %v", code, p)
 	}
@@ -73,41 +73,41 @@ func TestProjectAPI(t *testing.T) {
 		{"unknown key and bad type", `{"name": "x", "colour": "red", "settings": {"indoor": {"wind_m_s": "fast"}}}`, []string{"colour", "settings.indoor.wind_m_s"}},
 		{"missing name, bad units, out of range", `{"name": "", "units": "metric", "settings": {"criteria": {"dew_margin_k": 50}}}`, []string{"name", "units", "settings.criteria.dew_margin_k"}},
 	} {
-		code, m := ptJSON(t, h, "POST", "/api/v1/projects", c.body)
+		code, m := getJSON(t, h, "POST", "/api/v1/projects", c.body)
 		if code != http.StatusUnprocessableEntity {
 			t.Errorf("%s: = %d, want 422", c.name, code)
 		}
 		for _, f := range c.fields {
-			if !ptHas(ptFields(m), f) {
-				t.Errorf("%s: no error for %s in %v", c.name, f, ptFields(m))
+			if !hasText(formFields(m), f) {
+				t.Errorf("%s: no error for %s in %v", c.name, f, formFields(m))
 			}
 		}
 	}
 
-	code, p2 := ptJSON(t, h, "PATCH", u, `{"version": 1, "client": "Them", "settings": {"outdoor": {"wind_m_s": 5}}}`)
+	code, p2 := getJSON(t, h, "PATCH", u, `{"version": 1, "client": "Them", "settings": {"outdoor": {"wind_m_s": 5}}}`)
 	if code != 200 || p2["version"] != 2.0 || p2["client"] != "Them" || p2["name"] != "API plant" ||
 		p2["settings"].(map[string]any)["outdoor"].(map[string]any)["wind_m_s"] != 5.0 ||
 		p2["settings"].(map[string]any)["indoor"].(map[string]any)["ambient_temp_c"] != 22.0 {
 		t.Errorf("patch = %d %v", code, p2)
 	}
-	if code, _ := ptJSON(t, h, "PATCH", u, `{"version": 1, "client": "Stale"}`); code != http.StatusConflict {
+	if code, _ := getJSON(t, h, "PATCH", u, `{"version": 1, "client": "Stale"}`); code != http.StatusConflict {
 		t.Errorf("stale patch = %d, want 409", code)
 	}
-	if code, m := ptJSON(t, h, "PATCH", u, `{"client": "No version"}`); code != 422 || !ptHas(ptFields(m), "version") {
+	if code, m := getJSON(t, h, "PATCH", u, `{"client": "No version"}`); code != 422 || !hasText(formFields(m), "version") {
 		t.Errorf("patch without version = %d", code)
 	}
-	if code, m := ptJSON(t, h, "GET", "/api/v1/projects", ""); code != 200 || len(m["list"].([]any)) != 1 {
+	if code, m := getJSON(t, h, "GET", "/api/v1/projects", ""); code != 200 || len(m["list"].([]any)) != 1 {
 		t.Errorf("list = %d %v", code, m)
 	}
-	if code, _ := ptJSON(t, h, "DELETE", u, ""); code != http.StatusNoContent {
+	if code, _ := getJSON(t, h, "DELETE", u, ""); code != http.StatusNoContent {
 		t.Errorf("delete = %d", code)
 	}
-	if code, _ := ptJSON(t, h, "GET", u, ""); code != 404 {
+	if code, _ := getJSON(t, h, "GET", u, ""); code != 404 {
 		t.Errorf("deleted project = %d, want 404", code)
 	}
 }
 
-const ptSteamLine = `{"tag": "STM-1", "service": "LP steam", "geometry": "pipe", "pipe_size": "NPS 4", "fluid": "steam",
+const steamLine = `{"tag": "STM-1", "service": "LP steam", "geometry": "pipe", "pipe_size": "NPS 4", "fluid": "steam",
 	"steam_gauge_pressure_kpa": 700, "length_m": 30, "fittings": {"elbows": 2},
 	"layers": [{"material": "mineral_fiber_pipe_c547_t1", "thickness_mm": 12.7}], "jacket": "aluminium_new"}`
 
@@ -115,10 +115,10 @@ func TestLineAPI(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	base := fmt.Sprintf("/api/v1/projects/%d/lines", p.ID)
 
-	code, l := ptJSON(t, h, "POST", base, ptSteamLine)
+	code, l := getJSON(t, h, "POST", base, steamLine)
 	if code != http.StatusCreated {
 		t.Fatalf("create = %d %v", code, l)
 	}
@@ -141,50 +141,50 @@ func TestLineAPI(t *testing.T) {
 		{"line columns", `{"tag": "", "location": "roof", "geometry": "pipe", "pipe_size": "NPS 2", "operating_temp_c": 80}`, []string{"tag", "location"}},
 		{"unknown material", `{"tag": "X-3", "geometry": "pipe", "pipe_size": "NPS 2", "operating_temp_c": 80, "layers": [{"material": "unobtainium", "thickness_mm": 25}], "jacket": "pvc_jacket"}`, []string{"layers[0].material"}},
 	} {
-		code, m := ptJSON(t, h, "POST", base, c.body)
+		code, m := getJSON(t, h, "POST", base, c.body)
 		if code != http.StatusUnprocessableEntity {
 			t.Errorf("%s: = %d, want 422", c.name, code)
 		}
 		for _, f := range c.fields {
-			if !ptHas(ptFields(m), f) {
-				t.Errorf("%s: no error for %s in %v", c.name, f, ptFields(m))
+			if !hasText(formFields(m), f) {
+				t.Errorf("%s: no error for %s in %v", c.name, f, formFields(m))
 			}
 		}
 	}
-	if n := len(ptLines(t, st, p.ID)); n != 1 {
+	if n := len(projectLinesOf(t, st, p.ID)); n != 1 {
 		t.Errorf("%d lines stored after invalid posts, want 1", n)
 	}
-	if code, _ := ptJSON(t, h, "POST", base, ptSteamLine); code != http.StatusConflict {
+	if code, _ := getJSON(t, h, "POST", base, steamLine); code != http.StatusConflict {
 		t.Errorf("duplicate tag = %d, want 409", code)
 	}
 
-	code, l2 := ptJSON(t, h, "PATCH", u, `{"version": 1, "layers": [{"material": "mineral_fiber_pipe_c547_t1", "thickness_mm": 63.5}]}`)
+	code, l2 := getJSON(t, h, "PATCH", u, `{"version": 1, "layers": [{"material": "mineral_fiber_pipe_c547_t1", "thickness_mm": 63.5}]}`)
 	if code != 200 || l2["version"] != 2.0 || l2["tag"] != "STM-1" || l2["length_m"] != 30.0 {
 		t.Fatalf("patch = %d %v", code, l2)
 	}
 	if status := l2["status"].([]any); len(status) != 1 || status[0] == StatusTooHot {
 		t.Errorf("63.5 mm still too hot: %v", status)
 	}
-	if code, _ := ptJSON(t, h, "PATCH", u, `{"version": 1, "service": "stale"}`); code != http.StatusConflict {
+	if code, _ := getJSON(t, h, "PATCH", u, `{"version": 1, "service": "stale"}`); code != http.StatusConflict {
 		t.Errorf("stale patch = %d, want 409", code)
 	}
-	if code, m := ptJSON(t, h, "PATCH", u, `{"version": 2, "operating_temp_c": 5000}`); code != 422 || len(ptFields(m)) == 0 {
+	if code, m := getJSON(t, h, "PATCH", u, `{"version": 2, "operating_temp_c": 5000}`); code != 422 || len(formFields(m)) == 0 {
 		t.Errorf("bad patch = %d %v", code, m)
 	}
 	// A GET, sent back as it is with one change, is accepted.
-	_, cur := ptJSON(t, h, "GET", u, "")
+	_, cur := getJSON(t, h, "GET", u, "")
 	cur["notes"] = "round trip"
 	js, _ := json.Marshal(cur)
-	if code, m := ptJSON(t, h, "PATCH", u, string(js)); code != 200 || m["notes"] != "round trip" || m["version"] != 3.0 {
-		t.Errorf("round-trip patch = %d %v", code, ptFields(m))
+	if code, m := getJSON(t, h, "PATCH", u, string(js)); code != 200 || m["notes"] != "round trip" || m["version"] != 3.0 {
+		t.Errorf("round-trip patch = %d %v", code, formFields(m))
 	}
-	if code, m := ptJSON(t, h, "GET", base, ""); code != 200 || len(m["list"].([]any)) != 1 {
+	if code, m := getJSON(t, h, "GET", base, ""); code != 200 || len(m["list"].([]any)) != 1 {
 		t.Errorf("list = %d", code)
 	}
-	if code, _ := ptJSON(t, h, "DELETE", u, ""); code != http.StatusNoContent {
+	if code, _ := getJSON(t, h, "DELETE", u, ""); code != http.StatusNoContent {
 		t.Errorf("delete = %d", code)
 	}
-	if code, _ := ptJSON(t, h, "GET", u, ""); code != 404 {
+	if code, _ := getJSON(t, h, "GET", u, ""); code != 404 {
 		t.Errorf("deleted line = %d, want 404", code)
 	}
 }
@@ -197,12 +197,12 @@ func TestStoredResultsStaleAndFresh(t *testing.T) {
 	s, _ := newServer(t, st)
 	h := s.Routes()
 	ctx := context.Background()
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	base := fmt.Sprintf("/projects/%d", p.ID)
-	if code, m := ptJSON(t, h, "POST", "/api/v1"+base+"/lines", ptSteamLine); code != 201 {
+	if code, m := getJSON(t, h, "POST", "/api/v1"+base+"/lines", steamLine); code != 201 {
 		t.Fatalf("create line = %d %v", code, m)
 	}
-	l := ptLines(t, st, p.ID)[0]
+	l := projectLinesOf(t, st, p.ID)[0]
 	hash0 := l.ResultHash
 
 	// Put a marker in the stored result under the same hash: a view must read it back.
@@ -218,13 +218,13 @@ func TestStoredResultsStaleAndFresh(t *testing.T) {
 		}
 	}
 	var after analysis.Stored
-	if got := ptLines(t, st, p.ID)[0]; got.ResultHash != hash0 || json.Unmarshal(got.Result, &after) != nil ||
+	if got := projectLinesOf(t, st, p.ID)[0]; got.ResultHash != hash0 || json.Unmarshal(got.Result, &after) != nil ||
 		after.Output == nil || after.Output.SurfaceTempC != 123.456 {
 		t.Errorf("a view of a fresh line rewrote its result")
 	}
 
 	// Change the indoor conditions through the edit form: the result goes stale.
-	f := ptProjectForm()
+	f := testProjectForm()
 	f.Set("units", "si")
 	f.Set("settings.indoor.ambient_temp_c", "35")
 	f.Set("settings.outdoor.ambient_temp_c", "30")
@@ -236,16 +236,16 @@ func TestStoredResultsStaleAndFresh(t *testing.T) {
 	f.Set("settings.fittings.elbow_m", "0.6")
 	f.Set("settings.fittings.valve_m", "1.5")
 	f.Set("version", "1")
-	if rec := ptPost(t, h, base+"/edit", f, nil); rec.Code != http.StatusSeeOther {
+	if rec := postPage(t, h, base+"/edit", f, nil); rec.Code != http.StatusSeeOther {
 		t.Fatalf("edit project = %d: %s", rec.Code, rec.Body)
 	}
-	if got := ptLines(t, st, p.ID)[0]; got.ResultHash != hash0 {
+	if got := projectLinesOf(t, st, p.ID)[0]; got.ResultHash != hash0 {
 		t.Errorf("saving the project recomputed lines; the next view should")
 	}
 	if rec := do(t, h, "GET", base, nil, nil); rec.Code != 200 || strings.Contains(rec.Body.String(), ">123.5<") {
 		t.Fatalf("view after the conditions changed still shows the old result")
 	}
-	got := ptLines(t, st, p.ID)[0]
+	got := projectLinesOf(t, st, p.ID)[0]
 	var fresh analysis.Stored
 	_ = json.Unmarshal(got.Result, &fresh)
 	if got.ResultHash == hash0 || fresh.Output == nil || fresh.Output.ConditionsUsed.Design.AmbientTempC != 35 {
@@ -256,7 +256,7 @@ func TestStoredResultsStaleAndFresh(t *testing.T) {
 	}
 	// And a second view leaves it alone.
 	do(t, h, "GET", base, nil, nil)
-	if again := ptLines(t, st, p.ID)[0]; again.ResultHash != got.ResultHash || string(again.Result) != string(got.Result) {
+	if again := projectLinesOf(t, st, p.ID)[0]; again.ResultHash != got.ResultHash || string(again.Result) != string(got.Result) {
 		t.Errorf("second view changed the stored result")
 	}
 }
@@ -267,7 +267,7 @@ func TestDemoProject(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	rec := ptPost(t, h, "/projects/demo", url.Values{}, nil)
+	rec := postPage(t, h, "/projects/demo", url.Values{}, nil)
 	if rec.Code != http.StatusSeeOther {
 		t.Fatalf("demo = %d", rec.Code)
 	}
@@ -283,7 +283,7 @@ func TestDemoProject(t *testing.T) {
 		}
 		flags[v.Line.Tag] = lineStatus(v.Effective, v.Result)
 	}
-	if !ptHas(flags["STM-207"], StatusTooHot) || !ptHas(flags["CHW-309"], StatusCondenses) || !ptHas(flags["HHW-101"], StatusOK) {
+	if !hasText(flags["STM-207"], StatusTooHot) || !hasText(flags["CHW-309"], StatusCondenses) || !hasText(flags["HHW-101"], StatusOK) {
 		t.Errorf("flags: STM-207 %v, CHW-309 %v, HHW-101 %v", flags["STM-207"], flags["CHW-309"], flags["HHW-101"])
 	}
 	body := do(t, h, "GET", rec.Header().Get("Location")+"?sort=-surface", nil, nil).Body.String()

@@ -18,7 +18,7 @@ func TestProjectDelete(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	base := "/projects/" + strconv.FormatInt(p.ID, 10)
 	if rec := do(t, h, "GET", base, nil, nil); !strings.Contains(rec.Body.String(), `href="`+base+`/delete"`) {
 		t.Fatalf("the project page has no delete link")
@@ -30,7 +30,7 @@ func TestProjectDelete(t *testing.T) {
 	if _, err := st.Project(context.Background(), p.ID); err != nil {
 		t.Fatalf("the confirm page changed something: %v", err)
 	}
-	rec = ptPost(t, h, base+"/delete", nil, nil)
+	rec = postPage(t, h, base+"/delete", nil, nil)
 	if rec.Code != http.StatusSeeOther || rec.Header().Get("Location") != "/projects" {
 		t.Fatalf("POST %s/delete = %d to %q, want 303 to /projects", base, rec.Code, rec.Header().Get("Location"))
 	}

@@ -36,9 +36,9 @@ func TestProjectFormUnits(t *testing.T) {
 			t.Errorf("GET %s: a units select that would not convert the values", c.target)
 		}
 	}
-	f := ptProjectForm() // US units
+	f := testProjectForm() // US units
 	f.Set("settings.criteria.max_surface_temp_c", "60")
-	rec := ptPost(t, h, "/projects", f, nil)
+	rec := postPage(t, h, "/projects", f, nil)
 	body := rec.Body.String()
 	if rec.Code != http.StatusUnprocessableEntity || !strings.Contains(body, "°F") || strings.Contains(body, "°C</span>") {
 		t.Fatalf("touch limit 60 °F = %d; want 422 with the range in °F", rec.Code)

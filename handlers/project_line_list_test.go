@@ -26,7 +26,7 @@ func TestProjectLineListFromSummaries(t *testing.T) {
 	s, _ := newServer(t, st)
 	h := s.Routes()
 	ctx := context.Background()
-	if rec := ptPost(t, h, "/projects/demo", url.Values{}, nil); rec.Code != http.StatusSeeOther {
+	if rec := postPage(t, h, "/projects/demo", url.Values{}, nil); rec.Code != http.StatusSeeOther {
 		t.Fatalf("demo = %d", rec.Code)
 	}
 	list, _ := st.Projects(ctx)
@@ -79,15 +79,15 @@ func TestProjectLineListKeys(t *testing.T) {
 			t.Fatal(err)
 		}
 	}
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	base := fmt.Sprintf("/projects/%d", p.ID)
-	line := strings.Replace(ptSteamLine, "mineral_fiber_pipe_c547_t1", "test_mf", 1)
-	if code, m := ptJSON(t, h, "POST", "/api/v1"+base+"/lines", line); code != 201 {
+	line := strings.Replace(steamLine, "mineral_fiber_pipe_c547_t1", "test_mf", 1)
+	if code, m := getJSON(t, h, "POST", "/api/v1"+base+"/lines", line); code != 201 {
 		t.Fatalf("create line = %d %v", code, m)
 	}
 	mark := func() {
 		t.Helper()
-		l := ptLines(t, st, p.ID)[0]
+		l := projectLinesOf(t, st, p.ID)[0]
 		var stored analysis.Stored
 		if err := json.Unmarshal(l.Result, &stored); err != nil || stored.Output == nil {
 			t.Fatalf("stored result: %v", err)
@@ -156,14 +156,14 @@ func TestProjectLineListKeys(t *testing.T) {
 	if !marked() {
 		t.Fatal("marker lost")
 	}
-	l := ptLines(t, st, p.ID)[0]
+	l := projectLinesOf(t, st, p.ID)[0]
 	if err := st.SaveResults(ctx, []store.ResultUpdate{{LineID: l.ID, Result: l.Result, Hash: "other"}}); err != nil {
 		t.Fatal(err)
 	}
 	if marked() {
 		t.Errorf("a result under another hash was trusted through the old key")
 	}
-	if got := ptLines(t, st, p.ID)[0]; got.ResultHash != l.ResultHash || got.Version != l.Version {
+	if got := projectLinesOf(t, st, p.ID)[0]; got.ResultHash != l.ResultHash || got.Version != l.Version {
 		t.Errorf("recomputed: hash %q (want %q), version %d (want %d)", got.ResultHash, l.ResultHash, got.Version, l.Version)
 	}
 }

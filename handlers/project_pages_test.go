@@ -17,7 +17,7 @@ import (
 )
 
 // postForm posts url-encoded values.
-func ptPost(t *testing.T, h http.Handler, target string, v url.Values, header map[string]string) *httptest.ResponseRecorder {
+func postPage(t *testing.T, h http.Handler, target string, v url.Values, header map[string]string) *httptest.ResponseRecorder {
 	t.Helper()
 	hd := map[string]string{"Content-Type": "application/x-www-form-urlencoded"}
 	for k, x := range header {
@@ -27,7 +27,7 @@ func ptPost(t *testing.T, h http.Handler, target string, v url.Values, header ma
 }
 
 // newProject stores a project with the default settings in the given units.
-func ptProject(t *testing.T, st *store.Store, units string) store.Project {
+func createTestProject(t *testing.T, st *store.Store, units string) store.Project {
 	t.Helper()
 	js, _ := json.Marshal(analysis.DefaultSettings())
 	p, err := st.CreateProject(context.Background(), store.Project{Name: "Test plant", Units: units, Settings: js})
@@ -38,7 +38,7 @@ func ptProject(t *testing.T, st *store.Store, units string) store.Project {
 }
 
 // projectForm is a valid project form in US units.
-func ptProjectForm() url.Values {
+func testProjectForm() url.Values {
 	return url.Values{
 		"name": {"North cellar"}, "client": {"Test client"}, "site": {"Yard 2"}, "units": {"us"},
 		"settings.indoor.ambient_temp_c": {"75"}, "settings.indoor.relative_humidity_pct": {"50"},
@@ -64,13 +64,13 @@ func TestProjectPagesCreateEdit(t *testing.T) {
 	}
 
 	// Invalid: 422, messages beside the fields, the typed input kept.
-	bad := ptProjectForm()
+	bad := testProjectForm()
 	bad.Set("name", " ")
 	bad.Set("settings.indoor.ambient_temp_c", "seventy")
 	bad.Set("settings.outdoor.wind_m_s", "99 mph")
 	bad.Set("settings.economics.heating.efficiency", "150")
 	bad.Set("settings.economics.currency", "euro")
-	rec := ptPost(t, h, "/projects", bad, nil)
+	rec := postPage(t, h, "/projects", bad, nil)
 	body := rec.Body.String()
 	if rec.Code != http.StatusUnprocessableEntity {
 		t.Fatalf("invalid project form = %d, want 422", rec.Code)
@@ -88,7 +88,7 @@ func TestProjectPagesCreateEdit(t *testing.T) {
 	}
 
 	// Valid: 303 to the project, settings stored in SI.
-	rec = ptPost(t, h, "/projects", ptProjectForm(), nil)
+	rec = postPage(t, h, "/projects", testProjectForm(), nil)
 	if rec.Code != http.StatusSeeOther {
 		t.Fatalf("create project = %d: %s", rec.Code, rec.Body)
 	}
@@ -131,14 +131,14 @@ func TestProjectPagesCreateEdit(t *testing.T) {
 		}
 	}
 	// Edit with the version read: 303; a second save with the same (now stale) version: 409, input kept.
-	f := ptProjectForm()
+	f := testProjectForm()
 	f.Set("name", "North cellar, phase 2")
 	f.Set("version", fmt.Sprint(p.Version))
-	if rec := ptPost(t, h, fmt.Sprintf("/projects/%d/edit", p.ID), f, nil); rec.Code != http.StatusSeeOther {
+	if rec := postPage(t, h, fmt.Sprintf("/projects/%d/edit", p.ID), f, nil); rec.Code != http.StatusSeeOther {
 		t.Fatalf("edit project = %d: %s", rec.Code, rec.Body)
 	}
 	f.Set("name", "Typed meanwhile")
-	rec = ptPost(t, h, fmt.Sprintf("/projects/%d/edit", p.ID), f, nil)
+	rec = postPage(t, h, fmt.Sprintf("/projects/%d/edit", p.ID), f, nil)
 	if rec.Code != http.StatusConflict || !strings.Contains(rec.Body.String(), `value="Typed meanwhile"`) ||
 		!strings.Contains(rec.Body.String(), `data-testid="conflict"`) {
 		t.Errorf("stale project save = %d, want 409 with the typed name kept and a notice", rec.Code)

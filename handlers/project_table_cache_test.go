@@ -34,13 +34,13 @@ func TestProjectTableCache(t *testing.T) {
 	if _, err := st.CreateMaterial(ctx, mf); err != nil {
 		t.Fatal(err)
 	}
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	base := fmt.Sprintf("/projects/%d", p.ID)
-	line := strings.Replace(ptSteamLine, "mineral_fiber_pipe_c547_t1", "test_mf", 1)
+	line := strings.Replace(steamLine, "mineral_fiber_pipe_c547_t1", "test_mf", 1)
 	for i, tag := range []string{"STM-1", "STM-2"} {
 		body := strings.Replace(line, `"STM-1"`, `"`+tag+`"`, 1)
 		body = strings.Replace(body, `"length_m": 30`, fmt.Sprintf(`"length_m": %d`, 30+10*i), 1)
-		if code, m := ptJSON(t, h, "POST", "/api/v1"+base+"/lines", body); code != 201 {
+		if code, m := getJSON(t, h, "POST", "/api/v1"+base+"/lines", body); code != 201 {
 			t.Fatalf("create line = %d %v", code, m)
 		}
 	}
@@ -100,7 +100,7 @@ func TestProjectTableCache(t *testing.T) {
 	}
 
 	// A line edited (its service): the version changes.
-	l := ptLines(t, st, p.ID)[0]
+	l := projectLinesOf(t, st, p.ID)[0]
 	l.Service = "LP steam, east header"
 	if _, err := st.UpdateLine(ctx, l, []string{"test_mf"}); err != nil {
 		t.Fatal(err)
@@ -111,7 +111,7 @@ func TestProjectTableCache(t *testing.T) {
 	}
 
 	// A result saved under the same hash (version and hash unchanged): the marker shows.
-	l = ptLines(t, st, p.ID)[0]
+	l = projectLinesOf(t, st, p.ID)[0]
 	var stored analysis.Stored
 	if err := json.Unmarshal(l.Result, &stored); err != nil || stored.Output == nil {
 		t.Fatalf("stored result: %v", err)
@@ -164,7 +164,7 @@ func TestProjectTableCache(t *testing.T) {
 	}
 
 	// A line deleted.
-	if err := st.DeleteLine(ctx, p.ID, ptLines(t, st, p.ID)[1].ID); err != nil {
+	if err := st.DeleteLine(ctx, p.ID, projectLinesOf(t, st, p.ID)[1].ID); err != nil {
 		t.Fatal(err)
 	}
 	page = changed("line deleted", page)
@@ -209,9 +209,9 @@ func TestProjectSortJunk(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "si")
+	p := createTestProject(t, st, "si")
 	base := fmt.Sprintf("/projects/%d", p.ID)
-	if code, m := ptJSON(t, h, "POST", "/api/v1"+base+"/lines", ptSteamLine); code != 201 {
+	if code, m := getJSON(t, h, "POST", "/api/v1"+base+"/lines", steamLine); code != 201 {
 		t.Fatalf("create line = %d %v", code, m)
 	}
 	for range 3 { // until the lines' results and freshness keys are saved
