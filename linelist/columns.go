@@ -72,6 +72,7 @@ var (
 	// 1055.05585 J, NIST SP 811 Appendix B; 1 °F = 5/9 K).
 	uWPerK = []headerUnit{{norm: "w/k", label: "W/K", factor: 1, sys: units.SI}, {norm: "btu/hf", label: "Btu/h·°F", factor: 1055.05585262 / 3600 * 1.8, sys: units.US}}
 	uHours = []headerUnit{{norm: "h", label: "h", factor: 1, sys: units.SI}, {norm: "h", label: "h", factor: 1, sys: units.US}}
+	uPct   = []headerUnit{{norm: "%", label: "%", factor: 0.01, sys: units.SI}, {norm: "%", label: "%", factor: 0.01, sys: units.US}}
 )
 
 // unitNorm folds the spellings of a header unit: "°F", "degF", "F" → "f"; "kPa g",
@@ -90,6 +91,11 @@ type builder struct {
 	finish analysis.FittingFinish
 	cover  analysis.FittingCover
 	supp   analysis.Supports
+	// The as-found survey: one existing layer, condition or factor, missing share,
+	// fitting kinds found bare.
+	exLayer                     analysis.LayerInput
+	exCondition, exK, exFitting string
+	exMissing                   *float64
 }
 
 // maxLayers is the number of layer columns a line list has.
@@ -233,6 +239,48 @@ func buildColumns() []column {
 			func(r *Row) string { return crit(&r.Input).FreezeModel }),
 		qty("maintain_temp", "criteria.maintain_temp_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.crit.MaintainTempC },
 			func(in *analysis.Input) *float64 { return crit(in).MaintainTempC }),
+		text("existing_material", "existing.layers[0].material", func(b *builder) *string { return &b.exLayer.Material },
+			func(r *Row) string {
+				if e := r.Input.Existing; e != nil && len(e.Layers) > 0 {
+					return e.Layers[0].Material
+				}
+				return ""
+			}),
+		qty("existing_thickness", "existing.layers[0].thickness_mm", units.Length, uLength, func(b *builder) **float64 { return &b.exLayer.ThicknessMM },
+			func(in *analysis.Input) *float64 {
+				if e := in.Existing; e != nil && len(e.Layers) > 0 {
+					return e.Layers[0].ThicknessMM
+				}
+				return nil
+			}),
+		text("existing_condition", "existing.condition", func(b *builder) *string { return &b.exCondition }, func(r *Row) string {
+			switch e := r.Input.Existing; {
+			case e == nil:
+				return ""
+			case len(e.Layers) == 0:
+				return "bare"
+			}
+			return r.Input.Existing.Condition
+		}),
+		text("existing_k_factor", "existing.k_factor", func(b *builder) *string { return &b.exK }, func(r *Row) string {
+			if e := r.Input.Existing; e != nil && e.KFactor != nil {
+				return strconv.FormatFloat(*e.KFactor, 'f', -1, 64)
+			}
+			return ""
+		}),
+		qty("existing_missing", "existing.missing_fraction", 0, uPct, func(b *builder) **float64 { return &b.exMissing },
+			func(in *analysis.Input) *float64 {
+				if e := in.Existing; e != nil {
+					return e.MissingFraction
+				}
+				return nil
+			}),
+		text("existing_bare_fittings", "existing.bare_fittings", func(b *builder) *string { return &b.exFitting }, func(r *Row) string {
+			if e := r.Input.Existing; e != nil {
+				return strings.Join(e.BareFittings, ";")
+			}
+			return ""
+		}),
 		text("notes", "", func(b *builder) *string { return &b.row.Notes }, func(r *Row) string { return r.Notes }),
 	)
 	return cols

@@ -612,6 +612,49 @@ func finish(b *builder, h *header, rowNo int, c *collector) {
 		sp.Kind = strings.ToLower(sp.Kind)
 		in.Supports = &sp
 	}
+	finishExisting(b, rowNo, col, c)
+}
+
+// finishExisting assembles the as-found survey of a row: existing_condition "bare" (or
+// no existing layer with other survey cells) is a run found bare; "good", "wet",
+// "damaged" name the condition factor; existing_k_factor is a number;
+// existing_bare_fittings lists fitting kinds separated by ";" or ",".
+func finishExisting(b *builder, rowNo int, col func(string) string, c *collector) {
+	l := b.exLayer
+	cond := strings.ToLower(strings.TrimSpace(b.exCondition))
+	if l.Material == "" && l.ThicknessMM == nil && cond == "" && b.exK == "" && b.exMissing == nil && b.exFitting == "" {
+		return
+	}
+	e := &analysis.Existing{Layers: []analysis.LayerInput{}}
+	switch {
+	case l.Material != "" && l.ThicknessMM == nil:
+		c.add(rowNo, col("existing_thickness"), "is required with existing_material")
+	case l.Material == "" && l.ThicknessMM != nil:
+		c.add(rowNo, col("existing_material"), "is required with existing_thickness")
+	case l.Material != "":
+		if cond == "bare" {
+			c.add(rowNo, col("existing_condition"), `is "bare" but an existing layer is given`)
+		}
+		e.Layers = append(e.Layers, l)
+	}
+	if cond != "bare" {
+		e.Condition = cond
+	}
+	if b.exK != "" {
+		v, err := strconv.ParseFloat(strings.TrimSpace(b.exK), 64)
+		if err != nil {
+			c.add(rowNo, col("existing_k_factor"), "must be a number (a factor on k, 1 – 20), not %q", clip(b.exK, 20))
+		} else {
+			e.KFactor = &v
+		}
+	}
+	e.MissingFraction = b.exMissing
+	for _, k := range strings.FieldsFunc(b.exFitting, func(r rune) bool { return r == ';' || r == ',' }) {
+		if k = strings.ToLower(strings.TrimSpace(k)); k != "" {
+			e.BareFittings = append(e.BareFittings, k)
+		}
+	}
+	b.row.Input.Existing = e
 }
 
 // pipeSize reads a bare nominal size ("2", `1-1/2"`) as steel NPS; designations
