@@ -380,7 +380,11 @@ func ResultHash(in Input, v Versions) string {
 // Slugs lists the material and jacket slugs an input names, for ResultHash and for the
 // store's record of which lines use which material.
 func (in Input) Slugs() (materials []string, jacket string) {
-	for _, l := range in.Layers {
+	layers := in.Layers
+	if in.Existing != nil {
+		layers = append(slices.Clone(in.Layers), in.Existing.Layers...)
+	}
+	for _, l := range layers {
 		if l.Material != "" && !slices.Contains(materials, l.Material) {
 			materials = append(materials, l.Material)
 		}

@@ -6,6 +6,8 @@
 // Two lines are wrong on purpose, to show the line list's status flags: STM-207 is a
 // medium-pressure steam line with far too little insulation (too hot to touch), and
 // CHW-309 is a chilled-water line in a humid wash bay with thin insulation (it condenses).
+// HHW-109, STM-202 and CHW-301 carry an invented as-found survey (wet, bare, damaged) for
+// the Audit view.
 package demo
 
 import (
@@ -169,6 +171,19 @@ func Lines() []Line {
 	wash.AmbientTempC, wash.RelativeHumidityPct = f(29), f(85)
 	L = append(L, Line{"CHW-309", "CHW through the keg wash bay (humid)", ind, exp,
 		"The wash bay runs at about 85 % RH: thin lagging here condenses.", fit(4, 1, 2, 0, 0), wash})
+	// An invented walk-down survey of the old plant (for the Audit view): what was found
+	// on three runs before the new insulation goes on.
+	for i := range L {
+		switch L[i].Tag {
+		case "HHW-109": // the yard run: jacket split, insulation soaked
+			L[i].Input.Existing = &analysis.Existing{Layers: []analysis.LayerInput{layer(fiber, 1.5)}, Condition: "wet",
+				MissingFraction: f(0.15), BareFittings: []string{"valves", "flange_pairs"}}
+		case "STM-202": // found bare after a repair, valves never lagged
+			L[i].Input.Existing = &analysis.Existing{Layers: []analysis.LayerInput{}, BareFittings: []string{"valves"}}
+		case "CHW-301": // the chiller header: crushed at the supports
+			L[i].Input.Existing = &analysis.Existing{Layers: []analysis.LayerInput{layer(cellglas, 1)}, Condition: "damaged"}
+		}
+	}
 	return L
 }
 

@@ -114,6 +114,10 @@ func (s *Server) lineView(c *lineCtx, st *formState, res web.LineResults) web.Li
 		}
 		v.Materials = append(v.Materials, web.Choice{Value: m.Slug, Label: label})
 	}
+	v.Conditions = existingConditions
+	if own := c.ownInput(); own != nil && !existingEditable(own.Existing) {
+		v.ExistingNote = "This line's as-found survey has several layers (set through the API or an import): it is kept as stored; edit it there."
+	}
 	v.Jackets = []web.Choice{{Value: "", Label: "none (give an emittance)"}}
 	v.CoverJackets = []web.Choice{{Value: "", Label: "the line's jacket"}}
 	for _, j := range c.lib.JacketChoices() {

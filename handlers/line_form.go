@@ -285,6 +285,7 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	}
 	dropInapplicable(in, st)
 	in.Layers = readLayers(r, sys, st)
+	readExisting(r, sys, st, in)
 	for _, n := range fittingCounts {
 		if v, ok := readNum(r, n.numField, sys, st); ok {
 			*n.at(&lf.Fittings) = v.(int)
@@ -433,6 +434,9 @@ func lineFieldKey(st *formState) func(string) (string, bool) {
 		if known[path] {
 			return path, true
 		}
+		if k, ok := existingFieldKey(path); ok {
+			return k, true
+		}
 		if a, ok := alias[path]; ok {
 			return a, true
 		}
@@ -498,6 +502,7 @@ func lineFormValues(l store.Line, in analysis.Input, fit analysis.Fittings, sys 
 			st.Values.Set(c.key, v)
 		}
 	}
+	existingFormValues(st, in.Existing, sys)
 	for i, layer := range in.Layers {
 		st.Values.Set(fmt.Sprintf("layers[%d].material", i), layer.Material)
 		if layer.ThicknessMM != nil {
@@ -563,6 +568,9 @@ func formHidden(stored analysis.Input) analysis.Input {
 	h.Fluid, h.System, h.OperatingTempC, h.SteamGaugePressureKPa, h.Flow = "", "", nil, nil, nil
 	h.Layers, h.Jacket, h.SurfaceEmittance = nil, "", nil
 	h.FittingFinish, h.FittingCover, h.Supports = nil, nil, nil // all on the form
+	if existingEditable(stored.Existing) {
+		h.Existing = nil // the form shows it
+	}
 	if stored.Criteria != nil {
 		cr := *stored.Criteria
 		cr.MaxSurfaceTempC, cr.DewMarginK, cr.MaxHeatFlowWPerM, cr.MaxTempChangeK, cr.FreezeHours = nil, nil, nil, nil, nil
