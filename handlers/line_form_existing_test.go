@@ -18,18 +18,18 @@ func TestLineFormAsFound(t *testing.T) {
 	st := storetest.NewDB(t)
 	s, _ := newServer(t, st)
 	h := s.Routes()
-	p := ptProject(t, st, "us")
+	p := createTestProject(t, st, "us")
 	base := fmt.Sprintf("/projects/%d", p.ID)
-	f := ptLineForm()
+	f := lineFormValuesFor()
 	f.Set("existing.condition", "wet")
 	f.Set("existing.material", "elastomeric_c534_gr1")
 	f.Set("existing.thickness_mm", "0.5")
 	f.Set("existing.missing_pct", "10")
 	f.Set("existing.bare.valves", "1")
-	if rec := ptPost(t, h, base+"/lines", f, nil); rec.Code != http.StatusSeeOther {
+	if rec := postPage(t, h, base+"/lines", f, nil); rec.Code != http.StatusSeeOther {
 		t.Fatalf("save line with a survey = %d: %s", rec.Code, rec.Body)
 	}
-	l := ptLines(t, st, p.ID)[0]
+	l := projectLinesOf(t, st, p.ID)[0]
 	var in analysis.Input
 	if err := json.Unmarshal(l.Input, &in); err != nil {
 		t.Fatal(err)
@@ -46,23 +46,23 @@ func TestLineFormAsFound(t *testing.T) {
 			t.Errorf("line page lacks %q", want)
 		}
 	}
-	bad := ptLineForm()
+	bad := lineFormValuesFor()
 	bad.Set("version", fmt.Sprint(l.Version))
 	bad.Set("existing.condition", "damaged")
 	bad.Set("existing.material", "elastomeric_c534_gr1")
 	bad.Set("existing.thickness_mm", "0.5")
 	bad.Set("existing.k_factor", "0.2")
-	rec := ptPost(t, h, lineURL, bad, nil)
+	rec := postPage(t, h, lineURL, bad, nil)
 	if rec.Code != http.StatusUnprocessableEntity || !strings.Contains(rec.Body.String(), `data-testid="err-existing.k_factor"`) {
 		t.Errorf("k factor 0.2 = %d, want 422 with the message beside the field", rec.Code)
 	}
-	clear := ptLineForm()
+	clear := lineFormValuesFor()
 	clear.Set("version", fmt.Sprint(l.Version))
-	if rec := ptPost(t, h, lineURL, clear, nil); rec.Code != http.StatusSeeOther {
+	if rec := postPage(t, h, lineURL, clear, nil); rec.Code != http.StatusSeeOther {
 		t.Fatalf("clear survey = %d: %s", rec.Code, rec.Body)
 	}
 	in = analysis.Input{}
-	_ = json.Unmarshal(ptLines(t, st, p.ID)[0].Input, &in)
+	_ = json.Unmarshal(projectLinesOf(t, st, p.ID)[0].Input, &in)
 	if in.Existing != nil {
 		t.Errorf("survey not cleared: %+v", in.Existing)
 	}
