@@ -334,28 +334,24 @@ func (s *Server) projectShow(w http.ResponseWriter, r *http.Request) {
 		NewLineURL: fmt.Sprintf("/projects/%d/lines/new", p.ID), EditURL: fmt.Sprintf("/projects/%d/edit", p.ID),
 		BaseURL: fmt.Sprintf("/projects/%d", p.ID),
 	}
-	if e, ok := s.tables().get(key); ok {
-		head.LineCount, head.Table = e.lineCount, rawHTML(e.html)
-		w.Header().Set("Cache-Control", "no-store")
-		templ.Handler(web.ProjectPage(head)).ServeHTTP(w, r)
-		return
-	}
-	v, fresh, err := s.projectTable(r.Context(), p, set, sortParam, head)
+	e, err := s.tables().getOrBuild(r.Context(), key, func(ctx context.Context) (*tableEntry, bool, error) {
+		v, fresh, err := s.projectTable(ctx, p, set, sortParam, head)
+		if err != nil {
+			return nil, false, err
+		}
+		var b bytes.Buffer
+		if err := web.ProjectLineTable(v).Render(ctx, &b); err != nil {
+			return nil, false, err
+		}
+		return &tableEntry{key: key, html: b.Bytes(), lineCount: v.LineCount}, fresh, nil
+	})
 	if err != nil {
 		s.fail(w, r, err)
 		return
 	}
-	var b bytes.Buffer
-	if err := web.ProjectLineTable(v).Render(r.Context(), &b); err != nil {
-		s.fail(w, r, err)
-		return
-	}
-	if fresh {
-		s.tables().put(&tableEntry{key: key, html: b.Bytes(), lineCount: v.LineCount})
-	}
-	v.Table = rawHTML(b.Bytes())
+	head.LineCount, head.Table = e.lineCount, rawHTML(e.html)
 	w.Header().Set("Cache-Control", "no-store")
-	templ.Handler(web.ProjectPage(v)).ServeHTTP(w, r)
+	templ.Handler(web.ProjectPage(head)).ServeHTTP(w, r)
 }
 
 // projectTable builds the line list of the page whose head is v: rows, sorting,

@@ -45,10 +45,57 @@ type tableCache struct {
 	bytes    int        // HTML held
 	order    *list.List // of *tableEntry, most recent at the front
 	byKey    map[tableKey]*list.Element
+	building map[tableKey]*tableBuild // renders under way, one per key
+}
+
+// tableBuild is one render under way; views that miss on the same key while it
+// runs wait for it instead of rendering the same table again (64 first views of a
+// 500-line project are one render, not 64).
+type tableBuild struct {
+	done  chan struct{}
+	entry *tableEntry
+	err   error
 }
 
 func newTableCache(maxBytes int) *tableCache {
-	return &tableCache{maxBytes: maxBytes, order: list.New(), byKey: map[tableKey]*list.Element{}}
+	return &tableCache{maxBytes: maxBytes, order: list.New(), byKey: map[tableKey]*list.Element{},
+		building: map[tableKey]*tableBuild{}}
+}
+
+// getOrBuild returns the table under k: held, being built by another view (waited
+// for), or built now by build, which also says whether the table may be kept (only a
+// table of all-fresh lines is). The build runs without the caller's cancellation, so
+// a client that leaves does not fail the views waiting on it.
+func (c *tableCache) getOrBuild(ctx context.Context, k tableKey, build func(context.Context) (*tableEntry, bool, error)) (*tableEntry, error) {
+	c.mu.Lock()
+	if e, ok := c.byKey[k]; ok {
+		c.order.MoveToFront(e)
+		c.mu.Unlock()
+		return e.Value.(*tableEntry), nil
+	}
+	if b, ok := c.building[k]; ok {
+		c.mu.Unlock()
+		select {
+		case <-b.done:
+			return b.entry, b.err
+		case <-ctx.Done():
+			return nil, ctx.Err()
+		}
+	}
+	b := &tableBuild{done: make(chan struct{})}
+	c.building[k] = b
+	c.mu.Unlock()
+
+	var keep bool
+	b.entry, keep, b.err = build(context.WithoutCancel(ctx))
+	if b.err == nil && keep {
+		c.put(b.entry)
+	}
+	c.mu.Lock()
+	delete(c.building, k)
+	c.mu.Unlock()
+	close(b.done)
+	return b.entry, b.err
 }
 
 func (c *tableCache) get(k tableKey) (*tableEntry, bool) {

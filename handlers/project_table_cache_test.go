@@ -7,7 +7,10 @@ import (
 	"net/http"
 	"net/url"
 	"strings"
+	"sync"
+	"sync/atomic"
 	"testing"
+	"time"
 
 	"lagwright/analysis"
 	"lagwright/results"
@@ -235,5 +238,59 @@ func TestProjectSortJunk(t *testing.T) {
 	}
 	if rec := do(t, h, "GET", base+"?sort=-tag", nil, nil); rec.Code != http.StatusOK || !strings.Contains(rec.Body.String(), `aria-sort="descending"`) {
 		t.Errorf("a known sort key is not applied (%d)", rec.Code)
+	}
+}
+
+// TestProjectPageFirstViewsRenderOnce: many views arriving together at a project whose
+// answers are all stale (as after an import or a library change) share one render,
+// so each line is analysed once, not once per view.
+func TestProjectPageFirstViewsRenderOnce(t *testing.T) {
+	st := storetest.NewDB(t)
+	s, _ := newServer(t, st)
+	h := s.Routes()
+	ctx := context.Background()
+	if rec := postPage(t, h, "/projects/demo", url.Values{}, nil); rec.Code != http.StatusSeeOther {
+		t.Fatalf("demo = %d", rec.Code)
+	}
+	list, _ := st.Projects(ctx)
+	p := list[0].Project
+	lines, err := st.Lines(ctx, p.ID)
+	if err != nil || len(lines) == 0 {
+		t.Fatalf("%d lines, %v", len(lines), err)
+	}
+	var stale []store.ResultUpdate
+	for _, l := range lines {
+		stale = append(stale, store.ResultUpdate{LineID: l.ID, Result: l.Result, Hash: "stale"})
+	}
+	if err := st.SaveResults(ctx, stale); err != nil {
+		t.Fatal(err)
+	}
+	var calls atomic.Int64
+	release := make(chan struct{})
+	s.results = s.results.WithEngine(func(in []analysis.Input, lib analysis.Resolver) ([]analysis.Stored, error) {
+		<-release // hold the first render until every view has arrived
+		calls.Add(int64(len(in)))
+		return analysis.AnalyseMany(in, lib)
+	})
+	const views = 8
+	var wg sync.WaitGroup
+	codes := make([]int, views)
+	for i := range views {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			codes[i] = do(t, h, "GET", fmt.Sprintf("/projects/%d", p.ID), nil, nil).Code
+		}()
+	}
+	time.Sleep(300 * time.Millisecond) // the views reach the cache; one builds, the rest wait
+	close(release)
+	wg.Wait()
+	for i, c := range codes {
+		if c != http.StatusOK {
+			t.Errorf("view %d = %d", i, c)
+		}
+	}
+	if n := calls.Load(); n != int64(len(lines)) {
+		t.Errorf("%d views of %d stale lines analysed %d lines, want %d (one render)", views, len(lines), n, len(lines))
 	}
 }
