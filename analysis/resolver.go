@@ -9,6 +9,9 @@ import "lagwright/catalog"
 type Resolver interface {
 	Material(slug string) (catalog.Material, bool)
 	Jacket(slug string) (catalog.Jacket, bool)
+	// CodeTable finds an energy-code table by id (criteria.energy_code): the built-in
+	// ones, and in the app the users' own.
+	CodeTable(id string) (catalog.CodeTable, bool)
 }
 
 // CatalogResolver resolves from the compiled-in catalog only.
@@ -22,4 +25,9 @@ func (CatalogResolver) Material(slug string) (catalog.Material, bool) {
 // Jacket implements Resolver.
 func (CatalogResolver) Jacket(slug string) (catalog.Jacket, bool) {
 	return catalog.JacketBySlug(slug)
+}
+
+// CodeTable implements Resolver.
+func (CatalogResolver) CodeTable(id string) (catalog.CodeTable, bool) {
+	return catalog.CodeTableByID(id)
 }

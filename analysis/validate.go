@@ -255,7 +255,7 @@ func resolve(in Input, r Resolver) (*line, error) {
 	resolveRun(l, &c)
 	resolveFittings(l, r, &c)
 	resolveExisting(l, r, &c)
-	resolveCriteria(l, &c)
+	resolveCriteria(l, r, &c)
 	resolveEconomics(l, &c)
 	if err := c.err(); err != nil {
 		return nil, err
@@ -950,7 +950,7 @@ func resolveRun(l *line, c *errs) {
 	}
 }
 
-func resolveCriteria(l *line, c *errs) {
+func resolveCriteria(l *line, r Resolver, c *errs) {
 	cr := Criteria{}
 	if l.in.Criteria != nil {
 		cr = *l.in.Criteria
@@ -1020,7 +1020,7 @@ func resolveCriteria(l *line, c *errs) {
 		c.add("criteria.freeze_hours", "applies to water in pipes")
 	}
 	if cr.EnergyCode != "" {
-		t, ok := catalog.CodeTableByID(cr.EnergyCode)
+		t, ok := r.CodeTable(cr.EnergyCode)
 		switch {
 		case !ok:
 			c.add("criteria.energy_code", "unknown energy-code table %q", cr.EnergyCode)

@@ -65,8 +65,15 @@ type CodeTable struct {
 	Rows              []CodeRow
 	// RefEnd names the end of a row's conductivity range used as k in the correction
 	// T = r[(1 + t/r)^(K/k) − 1]: "upper" or "lower".
-	RefEnd string
-	Source string
+	RefEnd    string
+	Footnotes []CodeFootnote // reductions the table's footnotes allow, as named options
+	Source    string
+}
+
+// CodeFootnote is a reduction a table's footnotes allow (runouts, piping within
+// conditioned space …): a short name and the footnote's text.
+type CodeFootnote struct {
+	Name, Text string
 }
 
 // RefK returns the conductivity (Btu·in/(h·ft²·°F)) that the table's correction uses as k
@@ -130,6 +137,7 @@ var codeTables = []CodeTable{
 func (t CodeTable) clone() CodeTable {
 	t.Rows = append([]CodeRow(nil), t.Rows...)
 	t.Systems = append([]string(nil), t.Systems...)
+	t.Footnotes = append([]CodeFootnote(nil), t.Footnotes...)
 	return t
 }
 

@@ -2,6 +2,7 @@ package handlers
 
 import (
 	"encoding/json"
+	"lagwright/catalog"
 	"net/http"
 	"net/http/httptest"
 	"net/url"
@@ -101,6 +102,6 @@ func FuzzProjectForm(f *testing.F) {
 		if _, err := json.Marshal(in.Settings); err != nil {
 			t.Fatalf("settings do not marshal: %v", err)
 		}
-		_ = in.validate()
+		_ = in.validate(catalog.CodeTableByID)
 	})
 }

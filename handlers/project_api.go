@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"lagwright/catalog"
 	"net/http"
 	"slices"
 	"strings"
@@ -113,7 +114,7 @@ func mergePatch(target, patch map[string]any) map[string]any {
 }
 
 // decodeProject decodes a project body strictly over the defaults and validates it.
-func decodeProject(m map[string]any) (projectInput, error) {
+func decodeProject(m map[string]any, codeTable func(id string) (catalog.CodeTable, bool)) (projectInput, error) {
 	for _, k := range projectReadOnly {
 		delete(m, k)
 	}
@@ -126,7 +127,7 @@ func decodeProject(m map[string]any) (projectInput, error) {
 			return in, err
 		}
 	}
-	for _, e := range in.validate() {
+	for _, e := range in.validate(codeTable) {
 		if !slices.ContainsFunc(fe, func(d field.Error) bool { return d.Field == e.Field }) {
 			fe = append(fe, e)
 		}
@@ -165,7 +166,7 @@ func (s *Server) apiProjectCreate(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	delete(m, "version")
-	in, err := decodeProject(m)
+	in, err := decodeProject(m, s.codeTables(r))
 	if err != nil {
 		s.fail(w, r, err)
 		return
@@ -206,7 +207,7 @@ func (s *Server) apiProjectPatch(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	m := mergePatch(jsonMap(cur), patch)
-	in, err := decodeProject(m)
+	in, err := decodeProject(m, s.codeTables(r))
 	if err != nil {
 		s.fail(w, r, err)
 		return

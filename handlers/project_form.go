@@ -1,6 +1,7 @@
 package handlers
 
 import (
+	"context"
 	"encoding/json"
 	"fmt"
 	"net/http"
@@ -88,7 +89,9 @@ type projectInput struct {
 
 // validate checks the project beyond the types: name, units, and the settings
 // (ProjectSettings.Validate plus the condition sets and economics it leaves alone).
-func (p *projectInput) validate() field.Errors {
+//
+// codeTable finds an energy-code table by id (the library: built-in and custom tables).
+func (p *projectInput) validate(codeTable func(id string) (catalog.CodeTable, bool)) field.Errors {
 	var fe field.Errors
 	add := func(name, msg string) { fe = append(fe, field.Error{Field: name, Message: msg}) }
 	p.Name, p.Client, p.Site = strings.TrimSpace(p.Name), strings.TrimSpace(p.Client), strings.TrimSpace(p.Site)
@@ -140,7 +143,7 @@ func (p *projectInput) validate() field.Errors {
 		}
 	}
 	if c := p.Settings.Criteria.EnergyCode; c != "" {
-		if _, ok := catalog.CodeTableByID(c); !ok {
+		if _, ok := codeTable(c); !ok {
 			add("settings.criteria.energy_code", "unknown energy-code table")
 		}
 	}
@@ -215,7 +218,7 @@ func projectFormValues(p store.Project, set analysis.ProjectSettings) *formState
 }
 
 // projectFormView builds the view of the project form.
-func (s *Server) projectFormView(st *formState, p *store.Project) web.ProjectFormView {
+func (s *Server) projectFormView(ctx context.Context, st *formState, p *store.Project) web.ProjectFormView {
 	sys := units.System(st.Values.Get("units"))
 	if !sys.Valid() {
 		sys = units.SI
@@ -245,7 +248,7 @@ func (s *Server) projectFormView(st *formState, p *store.Project) web.ProjectFor
 		}
 		v.Locations = append(v.Locations, lv)
 	}
-	for _, t := range catalog.CodeTables() {
+	for _, t := range s.codeTableList(ctx) {
 		v.EnergyCodes = append(v.EnergyCodes, web.Choice{Value: t.ID, Label: t.Title()})
 	}
 	other := units.US
@@ -310,7 +313,7 @@ func (s *Server) projectNew(w http.ResponseWriter, r *http.Request) {
 	}
 	st := projectFormValues(p, analysis.DefaultSettings())
 	st.Values.Del("version")
-	templ.Handler(web.ProjectForm(s.projectFormView(st, nil))).ServeHTTP(w, r)
+	templ.Handler(web.ProjectForm(s.projectFormView(r.Context(), st, nil))).ServeHTTP(w, r)
 }
 
 func (s *Server) projectCreate(w http.ResponseWriter, r *http.Request) {
@@ -319,10 +322,10 @@ func (s *Server) projectCreate(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	st, in := projectFormFromRequest(r)
-	st.place(in.validate(), func(f string) (string, bool) { return f, true })
+	st.place(in.validate(s.codeTables(r)), func(f string) (string, bool) { return f, true })
 	localiseRanges(st, units.System(in.Units))
 	if !st.ok() {
-		templ.Handler(web.ProjectForm(s.projectFormView(st, nil)), templ.WithStatus(http.StatusUnprocessableEntity)).ServeHTTP(w, r)
+		templ.Handler(web.ProjectForm(s.projectFormView(r.Context(), st, nil)), templ.WithStatus(http.StatusUnprocessableEntity)).ServeHTTP(w, r)
 		return
 	}
 	p, err := s.store.CreateProject(r.Context(), in.project())
@@ -341,7 +344,7 @@ func (s *Server) projectEdit(w http.ResponseWriter, r *http.Request) {
 	if u := units.System(r.URL.Query().Get("units")); u.Valid() {
 		shown.Units = string(u)
 	}
-	templ.Handler(web.ProjectForm(s.projectFormView(projectFormValues(shown, set), &p))).ServeHTTP(w, r)
+	templ.Handler(web.ProjectForm(s.projectFormView(r.Context(), projectFormValues(shown, set), &p))).ServeHTTP(w, r)
 }
 
 func (s *Server) projectUpdate(w http.ResponseWriter, r *http.Request) {
@@ -351,13 +354,13 @@ func (s *Server) projectUpdate(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	st, in := projectFormFromRequest(r)
-	st.place(in.validate(), func(f string) (string, bool) { return f, true })
+	st.place(in.validate(s.codeTables(r)), func(f string) (string, bool) { return f, true })
 	localiseRanges(st, units.System(in.Units))
 	if in.Version == nil {
 		st.Other = append(st.Other, "The form lacks its version; reload the page.")
 	}
 	if !st.ok() {
-		templ.Handler(web.ProjectForm(s.projectFormView(st, &p)), templ.WithStatus(http.StatusUnprocessableEntity)).ServeHTTP(w, r)
+		templ.Handler(web.ProjectForm(s.projectFormView(r.Context(), st, &p)), templ.WithStatus(http.StatusUnprocessableEntity)).ServeHTTP(w, r)
 		return
 	}
 	row := in.project()
@@ -365,7 +368,7 @@ func (s *Server) projectUpdate(w http.ResponseWriter, r *http.Request) {
 	if _, err := s.store.UpdateProject(r.Context(), row); err != nil {
 		if classify(err).Code == CodeConflict {
 			st.Values.Set("version", strconv.Itoa(p.Version))
-			v := s.projectFormView(st, &p)
+			v := s.projectFormView(r.Context(), st, &p)
 			v.Notice = "Someone else saved this project after you opened it. Your changes are below, not saved yet; " +
 				"check them and save again to overwrite, or reload the page to see theirs."
 			templ.Handler(web.ProjectForm(v), templ.WithStatus(http.StatusConflict)).ServeHTTP(w, r)

@@ -130,6 +130,7 @@ func (s *Server) mountAPI(r chi.Router) {
 	r.Post("/calc", s.apiCalc)
 	s.projectListAPI(r)
 	s.materialAPI(r)
+	s.codeTableAPI(r)
 	s.importAPI(r)
 	r.Route("/projects/{id}", func(r chi.Router) {
 		r.Use(s.withProject)

@@ -83,7 +83,7 @@ func Hash(lib *store.Library, eff analysis.Input) string {
 	return analysis.ResultHash(eff, versions(lib, eff))
 }
 
-// versions lists the versions of the materials and jacket an input names.
+// versions lists the versions of the materials, jacket and energy-code table an input names.
 func versions(lib *store.Library, in analysis.Input) analysis.Versions {
 	mats, jacket := in.Slugs()
 	v := analysis.Versions{}
@@ -92,6 +92,10 @@ func versions(lib *store.Library, in analysis.Input) analysis.Versions {
 	}
 	if jacket != "" {
 		v["jacket:"+jacket] = lib.Version("jacket:" + jacket)
+	}
+	if in.Criteria != nil && in.Criteria.EnergyCode != "" { // an edited table makes its lines stale
+		id := "code_table:" + in.Criteria.EnergyCode
+		v[id] = lib.Version(id)
 	}
 	return v
 }

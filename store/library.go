@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/json"
 	"fmt"
+	"strings"
 
 	"github.com/jackc/pgx/v5"
 
@@ -15,8 +16,10 @@ import (
 // analysis.Resolver) and knows each row's version, so stored results know when a
 // material they used has changed.
 type Library struct {
-	materials map[string]libMaterial
-	jackets   map[string]libJacket
+	materials  map[string]libMaterial
+	jackets    map[string]libJacket
+	codeTables map[string]libCodeTable
+	codeOrder  []string // ids, built-in first, then by name
 }
 
 type libMaterial struct {
@@ -51,6 +54,9 @@ func (l *Library) Version(key string) int {
 	}
 	if len(key) > 7 && key[:7] == "jacket:" {
 		return l.jackets[key[7:]].version
+	}
+	if id, ok := strings.CutPrefix(key, "code_table:"); ok {
+		return l.codeTables[id].version
 	}
 	return 0
 }
@@ -132,7 +138,7 @@ func (s *Store) SeedCatalog(ctx context.Context) error {
 				return fmt.Errorf("store: seed jacket %s: %w", j.Slug, err)
 			}
 		}
-		return nil
+		return seedCodeTables(ctx, tx)
 	})
 }
 
@@ -203,6 +209,9 @@ func (s *Store) Library(ctx context.Context) (*Library, error) {
 	}
 	if err := rows.Err(); err != nil {
 		return nil, fmt.Errorf("store: library: %w", err)
+	}
+	if err := s.loadCodeTables(ctx, lib); err != nil {
+		return nil, err
 	}
 	return lib, nil
 }
