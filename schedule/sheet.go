@@ -191,7 +191,7 @@ func BuildSheet(p Project, l Line, r Resolver, date time.Time) Sheet {
 		inp.add("Freeze protection time", num(c.FreezeHours, " h"))
 		inp.add("Freeze basis", c.FreezeBasis)
 		inp.add("Heat tracing maintains", f.p(units.Temp, c.MaintainTempC))
-		inp.add("Energy code table", codeTableName(c.EnergyCode))
+		inp.add("Energy code table", codeTableName(c.EnergyCode, l.Output))
 	}
 	if e := in.Economics; e != nil {
 		cur := " " + e.CurrencyCode()
@@ -474,8 +474,18 @@ func (f fmtr) fittingsSection(o *analysis.Output) Section {
 }
 
 // codeTableName is an energy-code table as a reader cites it ("ASHRAE/IES Standard 90.1
-// minimum pipe insulation thickness (90.1-2016)"), not its identifier.
-func codeTableName(id string) string {
+// minimum pipe insulation thickness (90.1-2016)"), not its identifier: from the answer
+// (which names custom tables too), else the catalog.
+func codeTableName(id string, o *analysis.Output) string {
+	if id == "" {
+		return ""
+	}
+	if o != nil && o.EnergyCode != nil && o.EnergyCode.Table != "" {
+		if o.EnergyCode.Edition == "" {
+			return o.EnergyCode.Table
+		}
+		return o.EnergyCode.Table + " (" + o.EnergyCode.Edition + ")"
+	}
 	if t, ok := catalog.CodeTableByID(id); ok {
 		return t.Title()
 	}
