@@ -184,6 +184,22 @@ func Lines() []Line {
 			L[i].Input.Existing = &analysis.Existing{Layers: []analysis.LayerInput{layer(cellglas, 1)}, Condition: "damaged"}
 		}
 	}
+	// Invented examples of fitting finishes and supports, each said so in the line's notes.
+	for k := range L {
+		l := &L[k]
+		switch l.Tag {
+		case "STM-201":
+			l.Input.FittingFinish = &analysis.FittingFinish{Valves: analysis.FinishBare}
+			l.Notes = "Invented example: the three isolation valves are left bare, to show their share of the loss."
+		case "STM-204":
+			l.Input.FittingFinish = &analysis.FittingFinish{Valves: analysis.FinishCover, FlangePairs: analysis.FinishCover}
+			l.Input.FittingCover = &analysis.FittingCover{ThicknessMM: f(inch(2)), Jacket: "canvas"}
+			l.Notes += " Invented example: valves and flanges under 2 in removable covers."
+		case "CHW-305":
+			l.Input.Supports = &analysis.Supports{Kind: analysis.SupportClamp}
+			l.Notes = "Invented example: hung on bare clamps, to show the clamp condensation warning; specify inserts and shields."
+		}
+	}
 	return L
 }
 
