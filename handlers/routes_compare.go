@@ -12,6 +12,8 @@ func (s *Server) comparePages(r chi.Router) {
 	r.Get("/costs", s.costsEdit)
 	r.Post("/costs", s.costsSave)
 	r.Post("/costs/example", s.costsExample)
+	r.Get("/fittings", s.fittingTablesEdit)
+	r.Post("/fittings", s.fittingTablesSave)
 	r.Get("/economics", s.economicsProject)
 	r.Get("/audit", s.auditPage)
 	r.Get("/audit.pdf", s.auditExport("pdf", "application/pdf", schedule.WriteAuditPDF))
