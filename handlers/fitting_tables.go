@@ -17,13 +17,13 @@ import (
 )
 
 // fittingTablesURL is the page of a project's fitting and support-spacing tables.
-func fittingTablesURL(pid int64) string { return cmpProjectURL(pid) + "/fittings" }
+func fittingTablesURL(pid int64) string { return projectURL(pid) + "/fittings" }
 
 // fittingTablesEdit shows GET /projects/{id}/fittings: the project's rows, one a line,
 // beside the built-in tables by size they edit.
 func (s *Server) fittingTablesEdit(w http.ResponseWriter, r *http.Request) {
 	p, set := projectOf(r)
-	sys := cmpSystem(p)
+	sys := projectSystem(p)
 	v := fittingTablesView(p.ID, p.Name, p.Version, sys)
 	v.Assets = s.assets.urls
 	v.FittingRows = fittingRowsText(set.FittingTable, sys)
@@ -37,7 +37,7 @@ func (s *Server) fittingTablesEdit(w http.ResponseWriter, r *http.Request) {
 // A bad line comes back named with its message (422); a stale version is 409.
 func (s *Server) fittingTablesSave(w http.ResponseWriter, r *http.Request) {
 	p, _ := projectOf(r)
-	sys := cmpSystem(p)
+	sys := projectSystem(p)
 	if err := r.ParseForm(); err != nil {
 		s.fail(w, r, err)
 		return
@@ -190,7 +190,7 @@ func supportRowsText(rows []analysis.SupportRow, sys units.System) string {
 
 // fittingTablesView is the page with the built-in tables in the project's units.
 func fittingTablesView(pid int64, name string, version int, sys units.System) web.FittingTablesView {
-	v := web.FittingTablesView{Title: "Fittings and supports: " + name, ProjectURL: cmpProjectURL(pid), Action: fittingTablesURL(pid),
+	v := web.FittingTablesView{Title: "Fittings and supports: " + name, ProjectURL: projectURL(pid), Action: fittingTablesURL(pid),
 		Version: version, LengthUnit: units.Label(units.LongLength, sys), FittingBasis: catalog.FittingLengthBasis,
 		SupportBasis: catalog.SupportSpacingSteel + "; " + catalog.SupportSpacingCopper}
 	for _, k := range catalog.FittingKinds {
