@@ -582,10 +582,8 @@ func (a *analyser) cautions() {
 	}
 	if l.opC < l.condensation.air.TempC {
 		l.warn("below-ambient line: it needs a continuous vapour retarder sealed at every lap and joint, with vapour stops at fittings and at intervals")
-		if len(l.base.Layers) > 0 && (l.jacket == nil || !l.jacket.VapourRetarder) {
-			l.warn("the jacket given is not a vapour retarder: specify a vapour-retarder jacket or coating for this cold line")
-		}
 	}
+	a.vapourRetarder()
 	if o.FreezeHoursTo0C != nil {
 		o.Cautions = append(o.Cautions, "Insulation delays but does not prevent freezing of still water; "+
 			"drain, keep flowing or heat-trace lines that may stand in freezing weather.")
@@ -619,4 +617,46 @@ func round(v float64, decimals int) float64 {
 	return r
 }
 
-var _ = catalog.Materials
+// vapourRetarder reports the build's vapour retarder and, on a below-ambient line, judges
+// its permeance against the limit for the service temperature.
+func (a *analyser) vapourRetarder() {
+	l, o := a.l, a.out
+	rt := l.retarder
+	cold := l.opC < l.condensation.air.TempC
+	if len(l.base.Layers) == 0 || (!cold && l.in.VapourRetarder == "") {
+		return
+	}
+	out := &RetarderOut{Source: rt.source, Name: rt.name}
+	o.VapourRetarder = out
+	if rt.perm > 0 {
+		out.PermeancePerm = a.num(round(rt.perm, 4))
+		out.PermeanceMetric = a.num(round(rt.perm*catalog.PermToMetric, 3))
+	}
+	if !cold {
+		l.assume("vapour retarder not judged: the line is not below the condensation ambient")
+		return
+	}
+	limit, basis := catalog.RetarderLimit(l.opC)
+	if p := l.in.Criteria; p != nil && p.MaxRetarderPermeancePerm != nil {
+		limit, basis = *p.MaxRetarderPermeancePerm, "given (criteria.max_retarder_permeance_perm)"
+	}
+	out.LimitPerm = a.num(limit)
+	out.Basis = basis
+	switch {
+	case rt.source == "none":
+		out.Pass = ptr(false)
+		l.warn("this build has no vapour retarder: a below-ambient line needs one — a closed-cell insulation that retards vapour by itself, " +
+			"or a film, facing or mastic (vapour_retarder) under the cover")
+	case rt.perm == 0:
+		l.warn("vapour retarder %s: permeance unknown — check it against the limit, %s", rt.name, basis)
+	default:
+		pass := rt.perm <= limit+1e-12
+		out.Pass = &pass
+		l.assume("vapour retarder %s: %s perm (%s ng/s·m²·Pa; %s) against the limit, %s", rt.name, fmtRound(rt.perm, 4),
+			fmtRound(rt.perm*catalog.PermToMetric, 2), rt.basis, basis)
+		if !pass {
+			l.warn("vapour retarder %s: %s perm exceeds the %s perm limit: add a lower-permeance retarder (film, facing or mastic) over it, "+
+				"or justify the build by the maker's guidance", rt.name, fmtRound(rt.perm, 4), fmtNum(limit))
+		}
+	}
+}

@@ -47,11 +47,15 @@ type Input struct {
 	RelativeHumidityOver string      `json:"relative_humidity_over,omitempty"`
 	Conditions           *Conditions `json:"conditions,omitempty"`
 
-	Layers           []LayerInput `json:"layers"`
-	Jacket           string       `json:"jacket,omitempty"`
-	SurfaceEmittance *float64     `json:"surface_emittance,omitempty"`
-	BareEmittance    *float64     `json:"bare_emittance,omitempty"`
-	SurfaceCoeff     *float64     `json:"surface_coeff_w_m2k,omitempty"`
+	Layers []LayerInput `json:"layers"`
+	Jacket string       `json:"jacket,omitempty"`
+	// VapourRetarder is the build's vapour retarder when it is not the jacket: a jacket
+	// slug of a film, facing or mastic under the cover, "insulation" (the outer layer is
+	// closed-cell and retards vapour itself) or "none".
+	VapourRetarder   string   `json:"vapour_retarder,omitempty"`
+	SurfaceEmittance *float64 `json:"surface_emittance,omitempty"`
+	BareEmittance    *float64 `json:"bare_emittance,omitempty"`
+	SurfaceCoeff     *float64 `json:"surface_coeff_w_m2k,omitempty"`
 
 	LengthM              *float64 `json:"length_m,omitempty"`
 	AreaM2               *float64 `json:"area_m2,omitempty"`                 // flat surfaces: area for per-run totals
@@ -121,7 +125,10 @@ type Criteria struct {
 	MaintainTempC       *float64 `json:"maintain_temp_c,omitempty"`   // default 5
 	HeatTraceFactor     *float64 `json:"heat_trace_factor,omitempty"` // default 1.2
 	EnergyCode          string   `json:"energy_code,omitempty"`       // table id, e.g. "ashrae-90.1-2016"
-	Economic            *bool    `json:"economic,omitempty"`          // economic thickness may govern
+	// MaxRetarderPermeancePerm replaces the common-practice permeance limit of the vapour
+	// retarder on below-ambient lines, US perm.
+	MaxRetarderPermeancePerm *float64 `json:"max_retarder_permeance_perm,omitempty"`
+	Economic                 *bool    `json:"economic,omitempty"` // economic thickness may govern
 }
 
 // Economics holds the prices and rates for the thickness economics. Heat lost by hot

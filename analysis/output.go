@@ -53,7 +53,9 @@ type Output struct {
 	Checks     []Check        `json:"checks"`
 	Sizing     Sizing         `json:"sizing"`
 	EnergyCode *EnergyCodeRow `json:"energy_code"`
-	Economics  []EconomicsRow `json:"economics"`
+	// VapourRetarder judges the build's vapour retarder on below-ambient lines.
+	VapourRetarder *RetarderOut   `json:"vapour_retarder"`
+	Economics      []EconomicsRow `json:"economics"`
 	// AsFound is the line as found (with existing), beside the proposed build and bare.
 	AsFound *AsFoundOut `json:"as_found"`
 	// EnergyBasis is the basis the economics used (nil without economics or a price).
@@ -212,4 +214,16 @@ type AirOut struct {
 	RelativeHumidityPct *float64 `json:"relative_humidity_pct"`
 	DewPointC           *float64 `json:"dew_point_c"`
 	InitialTempC        *float64 `json:"initial_temp_c,omitempty"`
+}
+
+// RetarderOut is the vapour retarder of the build and its judgement against the
+// permeance limit for the service temperature.
+type RetarderOut struct {
+	Source          string   `json:"source"` // "jacket" | "retarder" (under the cover) | "insulation" | "none"
+	Name            string   `json:"name,omitempty"`
+	PermeancePerm   *float64 `json:"permeance_perm"`           // US perm; null: unknown
+	PermeanceMetric *float64 `json:"permeance_ng_per_s_m2_pa"` // ng/(s·m²·Pa)
+	LimitPerm       *float64 `json:"limit_perm"`               // null where not judged (line not below ambient)
+	Basis           string   `json:"basis,omitempty"`          // of the limit
+	Pass            *bool    `json:"pass"`                     // null: not judged or permeance unknown
 }

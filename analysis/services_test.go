@@ -1,6 +1,7 @@
 package analysis
 
 import (
+	"fmt"
 	"math"
 	"slices"
 	"strings"
@@ -240,5 +241,74 @@ func TestHeatTracingAnyFluid(t *testing.T) {
 	fe = fieldNames(fieldErrors(t, `{"geometry":"pipe","pipe_size":"NPS 3","operating_temp_c":30,"ambient_temp_c":-10,"layers":[],"criteria":{"heat_trace_factor":1.3}}`))
 	if !slices.Contains(fe, "criteria.heat_trace_factor") {
 		t.Errorf("factor without tracing: errors %v", fe)
+	}
+}
+
+// Vapour-retarder systems: the retarder is judged apart from the cover that gives the
+// emittance, against the permeance limit for the service temperature (common practice:
+// about 0.02 perm for chilled service, 0.01 below 0 °C).
+func TestVapourRetarderSystems(t *testing.T) {
+	chilled := `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":6,"ambient_temp_c":25,"relative_humidity_pct":60,
+		"layers":[{"material":"%s","thickness_mm":%s}],%s}`
+	run := func(mat, th, rest string) *Output {
+		return mustRun(t, fmt.Sprintf(chilled, mat, th, rest))
+	}
+	// Elastomeric with no jacket (painted): the insulation is its own retarder. 0.10 perm·in
+	// (ASTM C534 maximum, as recalled) over 1 in is 0.10 perm, above 0.02: judged, not refused.
+	el := run("elastomeric_c534_gr1", "25.4", `"surface_emittance":0.9`)
+	if el.VapourRetarder == nil || el.VapourRetarder.Source != "insulation" || el.VapourRetarder.PermeancePerm == nil {
+		t.Fatalf("elastomeric: %+v", el.VapourRetarder)
+	}
+	near(t, "elastomeric permeance", *el.VapourRetarder.PermeancePerm, 0.10, 1e-6)
+	// 1 perm = 57.2 ng/(s·m²·Pa) (ASTM E96 units, from memory).
+	near(t, "metric permeance", *el.VapourRetarder.PermeanceMetric, 5.72, 1e-6)
+	if *el.VapourRetarder.LimitPerm != 0.02 || el.VapourRetarder.Pass == nil || *el.VapourRetarder.Pass {
+		t.Errorf("elastomeric 1 in: limit %v pass %v, want 0.02 and false", *el.VapourRetarder.LimitPerm, el.VapourRetarder.Pass)
+	}
+	if containsAny(el.Warnings, "no vapour retarder") || containsAny(el.Warnings, "jacket given is not") {
+		t.Errorf("elastomeric must not be told it lacks a retarder: %q", el.Warnings)
+	}
+	// FSK (0.02 perm, jacket library) over the same elastomeric: in series, 1/(1/0.02 + 1/0.10)
+	// = 0.01667 perm (vapour resistances add, as thermal ones do): it passes.
+	fsk := run("elastomeric_c534_gr1", "25.4", `"jacket":"aluminium_new","vapour_retarder":"fsk"`)
+	if r := fsk.VapourRetarder; r == nil || r.PermeancePerm == nil || r.Pass == nil || !*r.Pass {
+		t.Fatalf("FSK over elastomeric: %+v", fsk.VapourRetarder)
+	}
+	near(t, "series permeance", *fsk.VapourRetarder.PermeancePerm, 0.0167, 0.003)
+	// Mineral fiber under an aluminium cover with an ASJ (0.02 perm) retarder beneath: the
+	// cover gives the emittance, the retarder passes.
+	under := run("mineral_fiber_pipe_c547_t1", "38.1", `"jacket":"aluminium_new","vapour_retarder":"all_service_jacket"`)
+	if r := under.VapourRetarder; r == nil || r.Source != "retarder" || r.Pass == nil || !*r.Pass {
+		t.Errorf("retarder under metal: %+v", under.VapourRetarder)
+	}
+	bare := run("mineral_fiber_pipe_c547_t1", "38.1", `"jacket":"aluminium_new"`)
+	if bare.VapourRetarder == nil || bare.VapourRetarder.Source != "none" || !containsAny(bare.Warnings, "this build has no vapour retarder") {
+		t.Errorf("no retarder: %+v %q", bare.VapourRetarder, bare.Warnings)
+	}
+	// The cover's emittance, not the retarder's, sets the surface: the same build with the
+	// ASJ as the outer jacket (ε 0.90) has a different surface temperature.
+	asj := run("mineral_fiber_pipe_c547_t1", "38.1", `"jacket":"all_service_jacket"`)
+	if under.SurfaceTempC == asj.SurfaceTempC {
+		t.Errorf("retarder under aluminium and ASJ outside gave the same surface %.3f °C", under.SurfaceTempC)
+	}
+	// Below 0 °C the limit is lower: the 0.02-perm ASJ fails 0.01.
+	cold := mustRun(t, `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":-20,"ambient_temp_c":25,"relative_humidity_pct":60,
+		"layers":[{"material":"polyiso_c591","thickness_mm":50.8}],"jacket":"aluminium_new","vapour_retarder":"all_service_jacket"}`)
+	if r := cold.VapourRetarder; r == nil || *r.LimitPerm != 0.01 || r.Pass == nil || *r.Pass {
+		t.Errorf("refrigerant service: %+v", cold.VapourRetarder)
+	}
+	// Bad combinations, each named.
+	fe := fieldNames(fieldErrors(t, `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":6,"ambient_temp_c":25,
+		"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"aluminium_new","vapour_retarder":"insulation",
+		"criteria":{"max_retarder_permeance_perm":-1}}`))
+	for _, f := range []string{"vapour_retarder", "criteria.max_retarder_permeance_perm"} {
+		if !slices.Contains(fe, f) {
+			t.Errorf("errors %v, want %s", fe, f)
+		}
+	}
+	fe = fieldNames(fieldErrors(t, `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":6,"ambient_temp_c":25,
+		"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"aluminium_new","vapour_retarder":"canvas"}`))
+	if !slices.Contains(fe, "vapour_retarder") {
+		t.Errorf("canvas is not a retarder: errors %v", fe)
 	}
 }

@@ -62,6 +62,7 @@ type line struct {
 	sizeUsed, sizeBasis string
 	pipeMat             catalog.PipeMaterial
 	jacket              *catalog.Jacket
+	retarder            retarder // the build's vapour retarder, as given or found
 
 	fluid        string
 	opC          float64
@@ -96,6 +97,15 @@ type line struct {
 	assumptions, warnings []string
 
 	sized []calc.Layer // scratch of analyser.system: the layers with a candidate thickness
+}
+
+// retarder is the build's vapour retarder: a jacket (the cover, or a film or mastic
+// under it), the closed-cell outer layer, or none.
+type retarder struct {
+	source string // "jacket" | "retarder" | "insulation" | "none"
+	name   string
+	perm   float64 // US perm; 0 = unknown
+	basis  string  // of the permeance
 }
 
 // criteria are the resolved sizing criteria.
@@ -867,6 +877,7 @@ func resolveSurface(l *line, r Resolver, c *errs) {
 	case len(in.Layers) > 0 && in.SurfaceCoeff == nil:
 		c.add("jacket", "give a jacket or surface_emittance for the insulated surface")
 	}
+	resolveRetarder(l, r, c)
 	if in.SurfaceCoeff != nil {
 		l.base.FixedCoeff = *in.SurfaceCoeff
 		l.assume("fixed surface coefficient %s W/m²·K on the insulated surface (replaces convection and radiation)", fmtNum(*in.SurfaceCoeff))
@@ -963,6 +974,9 @@ func resolveCriteria(l *line, r Resolver, c *errs) {
 	positiveCheck(c, "criteria.freeze_hours", cr.FreezeHours, 8760, "h")
 	rangeCheck(c, "criteria.maintain_temp_c", cr.MaintainTempC, 0.5, 300, "°C")
 	rangeCheck(c, "criteria.heat_trace_factor", cr.HeatTraceFactor, 1, 3, "")
+	if cr.MaxRetarderPermeancePerm != nil && (*cr.MaxRetarderPermeancePerm <= 0 || *cr.MaxRetarderPermeancePerm > 10) {
+		c.add("criteria.max_retarder_permeance_perm", "must be greater than 0 and at most 10 perm")
+	}
 	if cr.FreezeFraction != nil && (*cr.FreezeFraction <= 0 || *cr.FreezeFraction > 1) {
 		c.add("criteria.freeze_fraction", "must be greater than 0 and at most 1")
 	}
@@ -1064,4 +1078,68 @@ func resolveEconomics(l *line, c *errs) {
 		}
 	}
 	checkCostPoints(e, c)
+}
+
+// resolveRetarder finds the build's vapour retarder: as given (a retarder jacket under
+// the cover, the closed-cell outer layer, or none), else the jacket when it is one, else
+// a closed-cell outer layer, else none.
+func resolveRetarder(l *line, r Resolver, c *errs) {
+	in := l.in
+	v := in.VapourRetarder
+	if v != "" && len(in.Layers) == 0 {
+		c.add("vapour_retarder", "applies to an insulated line: give its layers")
+		return
+	}
+	outerSlug := ""
+	if n := len(in.Layers); n > 0 {
+		outerSlug = in.Layers[n-1].Material
+	}
+	closed, isClosed := catalog.ClosedCellBySlug(outerSlug)
+	outerPerm := func() float64 {
+		t := in.Layers[len(in.Layers)-1].ThicknessMM
+		if t == nil || *t <= 0 {
+			return 0
+		}
+		return closed.PermIn / (*t / catalog.MMPerInch)
+	}
+	fromJacket := func(j catalog.Jacket, source string) {
+		l.retarder = retarder{source: source, name: j.Name, perm: j.PermeancePerm, basis: "the jacket library's permeance"}
+		if p := outerPerm(); isClosed && p > 0 && j.PermeancePerm > 0 {
+			// Over a closed-cell layer the two resist vapour in series: 1/P = 1/P₁ + 1/P₂.
+			l.retarder.name = j.Name + " over the closed-cell outer layer"
+			l.retarder.perm = 1 / (1/j.PermeancePerm + 1/p)
+			l.retarder.basis = "the jacket library's permeance in series with the layer's (" + closed.Source + ")"
+		}
+	}
+	switch {
+	case v == "none":
+		l.retarder = retarder{source: "none"}
+	case v == "insulation":
+		if !isClosed {
+			c.add("vapour_retarder", "the outer layer is not a closed-cell insulation that retards vapour by itself (flexible elastomeric, cellular glass): "+
+				"give the film, facing or mastic under the cover")
+			return
+		}
+		l.retarder = retarder{source: "insulation", name: "the closed-cell outer layer", perm: outerPerm(), basis: closed.Source}
+	case v != "":
+		j, ok := r.Jacket(v)
+		switch {
+		case !ok:
+			c.add("vapour_retarder", "unknown retarder %q: a jacket, facing or mastic slug, \"insulation\" or \"none\"", v)
+		case !j.VapourRetarder:
+			c.add("vapour_retarder", "%s is not a vapour retarder", j.Name)
+		default:
+			source := "retarder"
+			if in.Jacket == v {
+				source = "jacket"
+			}
+			fromJacket(j, source)
+		}
+	case l.jacket != nil && l.jacket.VapourRetarder:
+		fromJacket(*l.jacket, "jacket")
+	case isClosed:
+		l.retarder = retarder{source: "insulation", name: "the closed-cell outer layer", perm: outerPerm(), basis: closed.Source}
+	default:
+		l.retarder = retarder{source: "none"}
+	}
 }

@@ -120,10 +120,15 @@ func (s *Server) lineView(c *lineCtx, st *formState, res web.LineResults) web.Li
 	}
 	v.Jackets = []web.Choice{{Value: "", Label: "none (give an emittance)"}}
 	v.CoverJackets = []web.Choice{{Value: "", Label: "the line's jacket"}}
+	v.Retarders = []web.Choice{{Value: "", Label: "the jacket, or a closed-cell outer layer (default)"},
+		{Value: "insulation", Label: "the closed-cell outer layer itself"}, {Value: "none", Label: "none"}}
 	for _, j := range c.lib.JacketChoices() {
 		ch := web.Choice{Value: j.Slug, Label: fmt.Sprintf("%s (ε %.2f)", j.Name, j.Emittance)}
 		v.Jackets = append(v.Jackets, ch)
 		v.CoverJackets = append(v.CoverJackets, ch)
+		if j.VapourRetarder {
+			v.Retarders = append(v.Retarders, web.Choice{Value: j.Slug, Label: j.Name + " under the cover"})
+		}
 	}
 	v.Finishes = []web.Choice{{Value: "", Label: "insulated (as the line)"}, {Value: analysis.FinishCover, Label: "removable cover"},
 		{Value: analysis.FinishBare, Label: "bare"}}

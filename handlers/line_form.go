@@ -251,7 +251,7 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	var lf lineFields
 	pf := r.PostForm
 	for _, k := range []string{"tag", "service", "location", "exposure", "notes", "version", "shape", "pipe_size",
-		"pipe_schedule", "pipe_material", "fluid", "system", "jacket"} {
+		"pipe_schedule", "pipe_material", "fluid", "system", "jacket", "vapour_retarder"} {
 		st.Values.Set(k, pf.Get(k))
 	}
 	lf.Tag, lf.Service, lf.Notes = pf.Get("tag"), pf.Get("service"), strings.ReplaceAll(pf.Get("notes"), "\r\n", "\n")
@@ -267,6 +267,7 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	in.PipeSize, in.PipeSchedule = strings.TrimSpace(pf.Get("pipe_size")), strings.TrimSpace(pf.Get("pipe_schedule"))
 	in.PipeMaterial, in.Fluid = strings.TrimSpace(pf.Get("pipe_material")), strings.TrimSpace(pf.Get("fluid"))
 	in.Jacket, in.System = strings.TrimSpace(pf.Get("jacket")), strings.TrimSpace(pf.Get("system"))
+	in.VapourRetarder = strings.TrimSpace(pf.Get("vapour_retarder"))
 	for _, n := range lineNums {
 		if v, ok := readNum(r, n.numField, sys, st); ok {
 			x := v.(float64)
@@ -411,7 +412,7 @@ func readLayers(r *http.Request, sys units.System, st *formState) []analysis.Lay
 // lineFieldKey maps an analysis field path to the form field showing it.
 func lineFieldKey(st *formState) func(string) (string, bool) {
 	known := map[string]bool{"tag": true, "service": true, "location": true, "exposure": true, "notes": true,
-		"pipe_size": true, "pipe_schedule": true, "pipe_material": true, "fluid": true, "system": true, "jacket": true, "criteria.freeze_model": true}
+		"pipe_size": true, "pipe_schedule": true, "pipe_material": true, "fluid": true, "system": true, "jacket": true, "criteria.freeze_model": true, "vapour_retarder": true}
 	for _, f := range lineNumFields {
 		known[f.Key] = true
 	}
@@ -566,7 +567,7 @@ func formHidden(stored analysis.Input) analysis.Input {
 	h.PipeSize, h.PipeSchedule, h.PipeODmm, h.PipeMaterial = "", "", nil, ""
 	h.DuctWidthMM, h.DuctHeightMM, h.HeightM, h.AreaM2, h.LengthM = nil, nil, nil, nil, nil
 	h.Fluid, h.System, h.OperatingTempC, h.SteamGaugePressureKPa, h.Flow = "", "", nil, nil, nil
-	h.Layers, h.Jacket, h.SurfaceEmittance = nil, "", nil
+	h.Layers, h.Jacket, h.SurfaceEmittance, h.VapourRetarder = nil, "", nil, ""
 	h.FittingFinish, h.FittingCover, h.Supports = nil, nil, nil // all on the form
 	if existingEditable(stored.Existing) {
 		h.Existing = nil // the form shows it

@@ -224,6 +224,8 @@ func buildColumns() []column {
 	}
 	cols = append(cols,
 		text("jacket", "jacket", func(b *builder) *string { return &b.row.Input.Jacket }, func(r *Row) string { return r.Input.Jacket }),
+		text("vapour_retarder", "vapour_retarder", func(b *builder) *string { return &b.row.Input.VapourRetarder },
+			func(r *Row) string { return r.Input.VapourRetarder }),
 		qty("max_surface_temp", "criteria.max_surface_temp_c", units.Temp, uTemp, func(b *builder) **float64 { return &b.crit.MaxSurfaceTempC },
 			func(in *analysis.Input) *float64 { return crit(in).MaxSurfaceTempC }),
 		qty("dew_margin", "criteria.dew_margin_k", units.TempDiff, uDiff, func(b *builder) **float64 { return &b.crit.DewMarginK },

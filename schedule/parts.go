@@ -76,6 +76,7 @@ var resultParts = []resultPart{
 	{[]string{"output", "freeze_hours_to_0c"}, optFloatPart(func(o *analysis.Output) **float64 { return &o.FreezeHoursTo0C })},
 	{[]string{"output", "heat_trace_w_per_m"}, optFloatPart(func(o *analysis.Output) **float64 { return &o.HeatTraceWPerM })},
 	{[]string{"output", "layers"}, jsonPart(func(o *analysis.Output) any { return &o.Layers })},
+	{[]string{"output", "vapour_retarder"}, jsonPart(func(o *analysis.Output) any { return &o.VapourRetarder })},
 	{[]string{"output", "sizing", "governing"}, func(_ *analysis.Stored, o *analysis.Output, v []byte) error {
 		g := string(v)
 		o.Sizing.Governing = &g

@@ -389,8 +389,13 @@ func buildRow(l Line, r Resolver) Row {
 	if o.HeatTraceWPerM != nil {
 		notes = append(notes, "heat tracing needed")
 	}
-	if in.Geometry != "flat" && o.Geometry != "" && in.Jacket != "" && !row.VapourRetarder && o.OperatingTempC < o.ConditionsUsed.Condensation.AmbientTempC {
-		notes = append(notes, "cold line: jacket is not a vapour retarder")
+	switch vr := o.VapourRetarder; {
+	case vr != nil && vr.Source == "none":
+		notes = append(notes, "cold line: no vapour retarder")
+	case vr != nil && vr.Pass != nil && !*vr.Pass:
+		notes = append(notes, "vapour retarder above the permeance limit")
+	case vr == nil && in.Geometry != "flat" && o.Geometry != "" && in.Jacket != "" && !row.VapourRetarder && o.OperatingTempC < o.ConditionsUsed.Condensation.AmbientTempC:
+		notes = append(notes, "cold line: jacket is not a vapour retarder") // answers stored before the retarder was judged
 	}
 	row.Notes = strings.Join(notes, "; ")
 	return row
