@@ -172,8 +172,8 @@ func TestLineFormValidation(t *testing.T) {
 		{"unknown pipe size", map[string]string{"pipe_size": "NPS 7"}, []string{"pipe_size"}, []string{`value="NPS 7"`}},
 		// 150 psig steam saturates near 366 °F (steam tables, from memory): 300 °F is below it.
 		{"steam below saturation, tracing factor out of range", map[string]string{"fluid": "steam", "steam_gauge_pressure_kpa": "150",
-			"operating_temp_c": "300", "criteria.maintain_temp_c": "50", "criteria.heat_trace_factor": "5", "criteria.freeze_model": "full"},
-			[]string{"operating_temp_c", "criteria.heat_trace_factor"}, []string{`value="300"`, `value="5"`, `value="full" selected`}},
+			"operating_temp_c": "300", "criteria.maintain_temp_c": "50", "criteria.heat_trace_factor": "5", "criteria.freeze_model": "full", "vapour_retarder": "canvas"},
+			[]string{"operating_temp_c", "criteria.heat_trace_factor", "vapour_retarder"}, []string{`value="300"`, `value="5"`, `value="full" selected`}},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			f := lineFormValuesFor()
