@@ -4,7 +4,7 @@ package catalog
 // serve as their own retarder, and the permeance a retarder should not exceed.
 
 // PermToMetric converts a water-vapour permeance in US perm (grains/(h·ft²·inHg)) to
-// ng/(s·m²·Pa): 1 perm = 57.2 ng/(s·m²·Pa) (ASTM E96 units; from memory — verify).
+// ng/(s·m²·Pa): 1 perm = 57.2 ng/(s·m²·Pa) (value as recalled from ASTM E96, check before use).
 const PermToMetric = 57.2
 
 // ClosedCell is a closed-cell insulation that is itself the vapour retarder: its
@@ -17,10 +17,10 @@ type ClosedCell struct {
 // closedCell holds the materials of the built-in classes that retard vapour by
 // themselves, at their specification's maximum permeability.
 var closedCell = map[string]ClosedCell{
-	"elastomeric_c534_gr1":   {0.10, "ASTM C534, maximum water-vapour permeability 0.10 perm·in, " + labelMemory},
-	"elastomeric_c534_gr2":   {0.10, "ASTM C534, maximum water-vapour permeability 0.10 perm·in, " + labelMemory},
-	"cellular_glass_c552_t1": {0.005, "ASTM C552, maximum water-vapour permeability 0.005 perm·in, " + labelMemory},
-	"cellular_glass_c552_t2": {0.005, "ASTM C552, maximum water-vapour permeability 0.005 perm·in, " + labelMemory},
+	"elastomeric_c534_gr1":   {0.10, "maximum water-vapour permeability 0.10 perm·in (value as recalled from ASTM C534, check before use)"},
+	"elastomeric_c534_gr2":   {0.10, "maximum water-vapour permeability 0.10 perm·in (value as recalled from ASTM C534, check before use)"},
+	"cellular_glass_c552_t1": {0.005, "maximum water-vapour permeability 0.005 perm·in (value as recalled from ASTM C552, check before use)"},
+	"cellular_glass_c552_t2": {0.005, "maximum water-vapour permeability 0.005 perm·in (value as recalled from ASTM C552, check before use)"},
 }
 
 // ClosedCellBySlug reports whether the material of slug is its own vapour retarder.
