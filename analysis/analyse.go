@@ -571,10 +571,15 @@ func (a *analyser) freezeHours(tMM float64) (float64, float64, error) {
 
 func (a *analyser) cautions() {
 	l, o := a.l, a.out
-	o.Cautions = append(make([]string, 0, 4), Caution) // room for every caution below
+	o.Cautions = append(make([]string, 0, 5), Caution) // room for every caution below
 	if l.opC > l.crit.maxSurfaceC {
 		o.Cautions = append(o.Cautions, "Personnel protection: a surface at the limit can still burn on long contact; "+
 			"public and healthcare areas often need lower limits, and guards are an alternative.")
+		if l.crit.public {
+			o.Cautions = append(o.Cautions, "Areas used by the public or patients: children, the elderly and people who cannot "+
+				"withdraw are burned at lower temperatures and after shorter contact; the limit given here must come from the "+
+				"local code or the facility's safety assessment, and guarding is often the better answer.")
+		}
 	}
 	if l.opC < l.condensation.air.TempC {
 		o.Cautions = append(o.Cautions, "Condensation control assumes a continuous, sealed vapour retarder; wet insulation loses "+

@@ -246,3 +246,39 @@ func TestJacketLimit(t *testing.T) {
 		t.Errorf("the proposed %v mm does not pass its own jacket check: %+v", *tj, c)
 	}
 }
+
+// Personnel protection without a personnel set: judged at the warmer of the design
+// ambient and a 32 °C (90 °F) hot day, in still air (common practice), echoed in
+// conditions_used.personnel; outdoors with 1000 W/m² of sunlight on the projected area
+// (common practice) absorbed at the jacket's solar absorptance.
+func TestPersonnelHotDayDefaults(t *testing.T) {
+	base := `{"geometry":"pipe","pipe_size":"NPS 2","operating_temp_c":150,"ambient_temp_c":20,"wind_m_s":3,
+		"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":25.4}],"jacket":"aluminium_weathered"`
+	in := mustRun(t, base+`}`)
+	p := in.ConditionsUsed.Personnel
+	if p.AmbientTempC != 32 || p.SurroundingsTempC != 32 || p.WindMS != 0 || p.SolarFluxWm2 == nil || *p.SolarFluxWm2 != 0 {
+		t.Errorf("indoor personnel conditions %+v, want 32 °C, still air, no sun", p)
+	}
+	out := mustRun(t, base+`,"location":"outdoor"}`)
+	p = out.ConditionsUsed.Personnel
+	if p.AmbientTempC != 32 || p.SolarFluxWm2 == nil || *p.SolarFluxWm2 != 1000 || p.SolarAbsorptance == nil || *p.SolarAbsorptance != 0.35 {
+		t.Errorf("outdoor personnel conditions %+v, want 32 °C and 1000 W/m² at the weathered aluminium's 0.35", p)
+	}
+	ci, co := checkOf(in, "personnel_protection"), checkOf(out, "personnel_protection")
+	if ci == nil || co == nil || co.Value <= ci.Value {
+		t.Errorf("sunlit surface %+v not above the shaded one %+v", co, ci)
+	}
+	hot := mustRun(t, strings.Replace(base, `"ambient_temp_c":20`, `"ambient_temp_c":38`, 1)+`}`)
+	if hot.ConditionsUsed.Personnel.AmbientTempC != 38 {
+		t.Errorf("design ambient 38 °C: personnel judged at %v °C, want the warmer 38", hot.ConditionsUsed.Personnel.AmbientTempC)
+	}
+	// Areas used by the public or patients: the user gives the lower limit, with a caution.
+	if fe := fieldErrors(t, base+`,"criteria":{"touch_exposure":"public"}}`); !slices.ContainsFunc(fe, func(e field.Error) bool { return e.Field == "criteria.max_surface_temp_c" }) {
+		t.Errorf("public exposure without a limit accepted: %v", fe)
+	}
+	pub := mustRun(t, base+`,"criteria":{"touch_exposure":"public","max_surface_temp_c":43}}`)
+	if c := checkOf(pub, "personnel_protection"); c == nil || c.Limit != 43 ||
+		!slices.ContainsFunc(pub.Cautions, func(s string) bool { return strings.Contains(s, "public or patients") }) {
+		t.Errorf("public exposure: check %+v, cautions %q", c, pub.Cautions)
+	}
+}

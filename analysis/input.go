@@ -56,6 +56,10 @@ type Input struct {
 	SurfaceEmittance *float64 `json:"surface_emittance,omitempty"`
 	BareEmittance    *float64 `json:"bare_emittance,omitempty"`
 	SurfaceCoeff     *float64 `json:"surface_coeff_w_m2k,omitempty"`
+	// SurfaceAbsorptance is the solar absorptance of the outer surface (wins over the
+	// jacket's); Location says whether the line is outdoors (sunlight for personnel protection).
+	SurfaceAbsorptance *float64 `json:"surface_absorptance,omitempty"`
+	Location           string   `json:"location,omitempty"` // "indoor" (default) | "outdoor"
 
 	LengthM              *float64 `json:"length_m,omitempty"`
 	AreaM2               *float64 `json:"area_m2,omitempty"`                 // flat surfaces: area for per-run totals
@@ -93,7 +97,8 @@ type ConditionSet struct {
 	WindMS              *float64 `json:"wind_m_s,omitempty"`
 	RelativeHumidityPct *float64 `json:"relative_humidity_pct,omitempty"`
 	DewPointC           *float64 `json:"dew_point_c,omitempty"`
-	InitialTempC        *float64 `json:"initial_temp_c,omitempty"` // freeze only
+	InitialTempC        *float64 `json:"initial_temp_c,omitempty"`  // freeze only
+	SolarFluxWm2        *float64 `json:"solar_flux_w_m2,omitempty"` // personnel only: sunlight on the projected area
 }
 
 // LayerInput is one insulation layer: exactly one of Material, KWmK or KPoints.
@@ -114,6 +119,7 @@ type Flow struct {
 type Criteria struct {
 	PersonnelProtection *bool    `json:"personnel_protection,omitempty"` // default true on lines hotter than the limit
 	MaxSurfaceTempC     *float64 `json:"max_surface_temp_c,omitempty"`   // default 60
+	TouchExposure       string   `json:"touch_exposure,omitempty"`       // "industrial" (default, 60 °C) | "public" (give the limit)
 	Condensation        *bool    `json:"condensation,omitempty"`         // default true on lines colder than ambient
 	DewMarginK          *float64 `json:"dew_margin_k,omitempty"`         // default 1
 	MaxHeatFlowWPerM    *float64 `json:"max_heat_flow_w_per_m,omitempty"`

@@ -214,6 +214,8 @@ type AirOut struct {
 	RelativeHumidityPct *float64 `json:"relative_humidity_pct"`
 	DewPointC           *float64 `json:"dew_point_c"`
 	InitialTempC        *float64 `json:"initial_temp_c,omitempty"`
+	SolarFluxWm2        *float64 `json:"solar_flux_w_m2,omitempty"`   // personnel: sunlight on the projected area
+	SolarAbsorptance    *float64 `json:"solar_absorptance,omitempty"` // personnel: of the outer surface
 }
 
 // RetarderOut is the vapour retarder of the build and its judgement against the

@@ -47,6 +47,7 @@ type Location struct {
 // ProjectCriteria are the project's default criteria.
 type ProjectCriteria struct {
 	MaxSurfaceTempC *float64 `json:"max_surface_temp_c,omitempty"`
+	TouchExposure   string   `json:"touch_exposure,omitempty"` // "industrial" | "public", see Criteria
 	DewMarginK      *float64 `json:"dew_margin_k,omitempty"`
 	EnergyCode      string   `json:"energy_code,omitempty"`
 }
@@ -255,6 +256,11 @@ func (p ProjectSettings) Validate() error {
 	if p.Economics != nil {
 		checkEconomics(p.Economics, "settings.economics.", false, &c)
 	}
+	if te := p.Criteria.TouchExposure; te != "" && te != "industrial" && te != "public" {
+		c.add("settings.criteria.touch_exposure", `must be "industrial" or "public"`)
+	} else if te == "public" && p.Criteria.MaxSurfaceTempC == nil {
+		c.add("settings.criteria.max_surface_temp_c", "give the touch limit for areas used by the public or patients")
+	}
 	if ts := p.ThicknessSeries; ts != "" && ts != "inch" && ts != "metric" {
 		c.add("settings.thickness_series", `must be "inch" or "metric"`)
 	}
@@ -305,10 +311,16 @@ func (p ProjectSettings) Effective(location string, line Input, fit Fittings) In
 	if cr.DewMarginK == nil {
 		cr.DewMarginK = p.Criteria.DewMarginK
 	}
+	if cr.TouchExposure == "" {
+		cr.TouchExposure = p.Criteria.TouchExposure
+	}
 	if cr.EnergyCode == "" && in.Geometry == "pipe" {
 		cr.EnergyCode = p.Criteria.EnergyCode
 	}
 	in.Criteria = &cr
+	if in.Location == "" {
+		in.Location = location
+	}
 	if in.ThicknessSeries == "" {
 		in.ThicknessSeries = p.ThicknessSeries
 	}

@@ -217,8 +217,10 @@ func FuzzRun(f *testing.F) {
 }
 
 // benchLine is the line of BenchmarkAnalyse: NPS 4 at 180 °C with 2 in of mineral fiber,
-// aluminium jacket, the energy code, a maximum heat flow and six priced thicknesses.
+// aluminium jacket, the energy code, a maximum heat flow and six priced thicknesses;
+// personnel judged at the design air (given, so that every criterion shares it).
 var benchLine = []byte(`{"geometry":"pipe","pipe_size":"NPS 4","operating_temp_c":180,"ambient_temp_c":20,"relative_humidity_pct":60,
+		"conditions":{"personnel":{"ambient_temp_c":20}},
 		"length_m":50,"layers":[{"material":"mineral_fiber_pipe_c547_t1","thickness_mm":50.8}],"jacket":"aluminium_new",
 		"criteria":{"energy_code":"ashrae-90.1-2016","max_heat_flow_w_per_m":80},
 		"economics":{"heating":{"price_per_kwh":0.05},"installed_cost_per_m":[{"thickness_mm":25.4,"cost":30},{"thickness_mm":38.1,"cost":36},

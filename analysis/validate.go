@@ -27,11 +27,17 @@ type airSet struct {
 
 	dewGiven bool   // the dew point was given (rh derived from it)
 	dewField string // the field that gave the dew point or the humidity, for messages
+
+	personnel   bool    // the personnel set: its echo names the sunlight and absorptance
+	absorptance float64 // personnel: solar absorptance of the outer surface
 }
 
 func (a airSet) out() AirOut {
 	o := AirOut{AmbientTempC: a.air.TempC, SurroundingsTempC: a.air.SurroundingsC,
 		WindMS: a.air.WindMS, RelativeHumidityPct: a.rh, DewPointC: a.dew, InitialTempC: a.initial}
+	if a.personnel {
+		o.SolarFluxWm2, o.SolarAbsorptance = ptr(a.air.SolarWm2), ptr(a.absorptance)
+	}
 	if a.rh != nil {
 		o.RelativeHumidityPct = ptr(round(*a.rh, 3))
 	}
@@ -111,6 +117,7 @@ type retarder struct {
 // criteria are the resolved sizing criteria.
 type criteria struct {
 	personnel       bool
+	public          bool // touch exposure of the public or patients: the user's lower limit
 	maxSurfaceC     float64
 	condensation    bool
 	dewMarginK      float64
@@ -593,7 +600,7 @@ func resolveConditions(l *line, c *errs) {
 	if in.Conditions != nil {
 		cs = *in.Conditions
 	}
-	l.personnel = conditionSet(l, c, "personnel", cs.Personnel, true)
+	l.personnel = personnelSet(l, c, cs.Personnel)
 	l.condensation = conditionSet(l, c, "condensation", cs.Condensation, true)
 	l.freeze = conditionSet(l, c, "freeze", cs.Freeze, false)
 	l.econ = conditionSet(l, c, "economics", cs.Economics, false)
@@ -604,6 +611,17 @@ func resolveConditions(l *line, c *errs) {
 		if s.set != nil && s.set.InitialTempC != nil {
 			c.add("conditions."+s.name+".initial_temp_c", "applies only to the freeze conditions")
 		}
+	}
+	for _, s := range [...]struct {
+		name string
+		set  *ConditionSet
+	}{{"condensation", cs.Condensation}, {"freeze", cs.Freeze}, {"economics", cs.Economics}} {
+		if s.set != nil && s.set.SolarFluxWm2 != nil {
+			c.add("conditions."+s.name+".solar_flux_w_m2", "applies only to the personnel conditions")
+		}
+	}
+	if in.Location != "" && in.Location != "indoor" && in.Location != "outdoor" {
+		c.add("location", `must be "indoor" or "outdoor"`)
 	}
 	if cs.Freeze != nil {
 		rangeCheck(c, "conditions.freeze.initial_temp_c", cs.Freeze.InitialTempC, -50, 200, "°C")
@@ -718,6 +736,52 @@ func conditionSet(l *line, c *errs, name string, set *ConditionSet, stillAir boo
 		out.rh, out.dew, out.dewGiven, out.dewField = nil, set.DewPointC, true, p+"dew_point_c"
 	}
 	out.initial = set.InitialTempC
+	return out
+}
+
+// hotDayC is the personnel ambient floor: a hot day, 32 °C (90 °F), common practice.
+const hotDayC = 32.0
+
+// defaultSolarWm2 is the sunlight on the projected area of an outdoor line for personnel
+// protection, W/m² (a clear-sky noon, common practice).
+const defaultSolarWm2 = 1000.0
+
+// personnelSet resolves the personnel conditions. Where the set does not give them:
+// the warmer of the design ambient and a 32 °C hot day (air and surroundings), still
+// air, and outdoors sunlight of 1000 W/m² on the projected area (all common practice).
+func personnelSet(l *line, c *errs, set *ConditionSet) airSet {
+	in := l.in
+	given := set
+	if set == nil {
+		set = &ConditionSet{}
+	}
+	out := conditionSet(l, c, "personnel", given, true)
+	if given == nil {
+		l.assumptions = l.assumptions[:len(l.assumptions)-1] // "at the design conditions": replaced below
+	}
+	out.personnel = true
+	var parts []string
+	if set.AmbientTempC == nil && out.air.TempC < hotDayC {
+		out.air.TempC = hotDayC
+		parts = append(parts, "a 32 °C (90 °F) hot-day ambient, warmer than the design ambient")
+	}
+	if set.AmbientTempC == nil && set.SurroundingsTempC == nil && out.air.SurroundingsC < hotDayC {
+		out.air.SurroundingsC = hotDayC
+	}
+	if set.WindMS == nil {
+		parts = append(parts, "still air")
+	}
+	rangeCheck(c, "conditions.personnel.solar_flux_w_m2", set.SolarFluxWm2, 0, 1400, "W/m²")
+	switch {
+	case set.SolarFluxWm2 != nil:
+		out.air.SolarWm2 = *set.SolarFluxWm2
+	case in.Location == "outdoor":
+		out.air.SolarWm2 = defaultSolarWm2
+		parts = append(parts, "sunlight of 1000 W/m² on the projected area (outdoors)")
+	}
+	if len(parts) > 0 {
+		l.assumeText("personnel protection judged with " + strings.Join(parts, ", ") + " (common practice)")
+	}
 	return out
 }
 
@@ -878,6 +942,27 @@ func resolveSurface(l *line, r Resolver, c *errs) {
 		c.add("jacket", "give a jacket or surface_emittance for the insulated surface")
 	}
 	resolveRetarder(l, r, c)
+	rangeCheck(c, "surface_absorptance", in.SurfaceAbsorptance, 0, 1, "")
+	switch {
+	case in.SurfaceAbsorptance != nil:
+		l.base.SolarAbsorptance = *in.SurfaceAbsorptance
+	case l.jacket != nil && l.jacket.SolarAbsorptance > 0 && len(in.Layers) > 0:
+		l.base.SolarAbsorptance = l.jacket.SolarAbsorptance
+	default:
+		l.base.SolarAbsorptance = 0.9
+	}
+	l.personnel.absorptance = l.base.SolarAbsorptance
+	if l.personnel.air.SolarWm2 > 0 {
+		src := "given"
+		switch {
+		case in.SurfaceAbsorptance != nil:
+		case l.jacket != nil && l.jacket.SolarAbsorptance > 0 && len(in.Layers) > 0:
+			src = l.jacket.AbsorptanceSource
+		default:
+			src = "no absorptance known for this surface: a dark one assumed, the safe side (common practice)"
+		}
+		l.assumeText("solar absorptance " + fmtNum(l.base.SolarAbsorptance) + " of the outer surface for personnel protection: " + src)
+	}
 	if in.SurfaceCoeff != nil {
 		l.base.FixedCoeff = *in.SurfaceCoeff
 		l.assume("fixed surface coefficient %s W/m²·K on the insulated surface (replaces convection and radiation)", fmtNum(*in.SurfaceCoeff))
@@ -982,8 +1067,18 @@ func resolveCriteria(l *line, r Resolver, c *errs) {
 	}
 	k.maxSurfaceC = orDefault(cr.MaxSurfaceTempC, 60)
 	k.personnel = (cr.PersonnelProtection == nil || *cr.PersonnelProtection) && l.opC > k.maxSurfaceC
-	if k.personnel && cr.MaxSurfaceTempC == nil {
-		l.assume("personnel protection: surface at most 60 °C (common practice for metal jacketing, on the contact-burn basis of ASTM C1055)")
+	switch cr.TouchExposure {
+	case "", "industrial":
+		if k.personnel && cr.MaxSurfaceTempC == nil {
+			l.assume("personnel protection: surface at most 60 °C (industrial exposure, contact of a few seconds: common practice for metal jacketing, on the contact-burn basis of ASTM C1055)")
+		}
+	case "public":
+		if cr.MaxSurfaceTempC == nil {
+			c.add("criteria.max_surface_temp_c", "give the touch limit for areas used by the public or patients (lower than the industrial 60 °C; see ASTM C1055 and the local code)")
+		}
+		k.public = true
+	default:
+		c.add("criteria.touch_exposure", `must be "industrial" or "public"`)
 	}
 	k.dewMarginK = orDefault(cr.DewMarginK, 1)
 	// Condensation is judged wherever the surface can reach the dew point plus margin: it

@@ -71,7 +71,8 @@ func (p *path) buildFace(sys System, w0 float64, kind surfKind, wo, ho float64) 
 		w += 2 * l.Thickness
 	}
 	p.area = w
-	p.surf = surface{kind: kind, emit: sys.Emittance, fixed: sys.FixedCoeff, lWind: w}
+	p.surf = surface{kind: kind, emit: sys.Emittance, fixed: sys.FixedCoeff, lWind: w,
+		solar: sys.SolarAbsorptance * solarShare(kind)}
 	if kind == surfPlateV {
 		p.surf.l = ho
 	} else {

@@ -79,6 +79,7 @@ func (p *path) build(sys System) {
 		if sys.Shape == PipeVertical {
 			p.surf.kind, p.surf.l = surfCylV, sys.Height
 		}
+		p.surf.solar = sys.SolarAbsorptance * solarShare(p.surf.kind)
 		return
 	}
 	// Flat surfaces, per m²; the pipe wall does not apply.
@@ -100,6 +101,7 @@ func (p *path) build(sys System) {
 		p.surf.l = sys.PlateLength * sys.PlateWidth / (2 * (sys.PlateLength + sys.PlateWidth))
 		p.surf.lWind = sys.PlateLength
 	}
+	p.surf.solar = sys.SolarAbsorptance * solarShare(p.surf.kind)
 }
 
 // pathResult is the solved state of one heat path.
@@ -140,7 +142,7 @@ func (p *path) settleJump(res *pathResult, fluid float64, air Air, qLo, qHi floa
 	res.q, res.jump = q, true
 	flux := q / p.area
 	if dt := res.ts - air.TempC; dt != 0 && p.surf.fixed == 0 {
-		res.sf.hConv = (flux - RadiationFlux(p.surf.emit, res.ts, air.SurroundingsC)) / dt
+		res.sf.hConv = (flux + p.surf.solar*air.SolarWm2 - RadiationFlux(p.surf.emit, res.ts, air.SurroundingsC)) / dt
 	}
 	res.sf.flux = flux
 	return nil
@@ -175,6 +177,13 @@ func (p *path) solve(fluid float64, air Air) (res pathResult, err error) {
 	// surface gains heat (residual ≤ 0), at hi it loses heat (residual ≥ 0).
 	lo := math.Min(fluid, math.Min(air.TempC, air.SurroundingsC))
 	hi := math.Max(fluid, math.Max(air.TempC, air.SurroundingsC))
+	if p.surf.solar*air.SolarWm2 > 0 {
+		// Sunlight can hold the surface above every other temperature: raise hi until
+		// the surface loses heat there (past the sol-air temperature).
+		for step := 10.0; p.surf.exchange(hi, air).flux < 0 && step < 1e4; step *= 2 {
+			hi += step
+		}
+	}
 	x := p.guess(fluid, air, lo, hi)
 	dxOld := hi - lo // Newton steps must keep shrinking (Numerical Recipes' rtsafe)
 	qLo, qHi := math.NaN(), math.NaN()
@@ -239,7 +248,7 @@ func (p *path) guess(fluid float64, air Air, lo, hi float64) float64 {
 		case pass == 0:
 			t1, t2 := ts+kelvin, air.SurroundingsC+kelvin
 			hr := p.surf.emit * StefanBoltzmann * (t1*t1 + t2*t2) * (t1 + t2)
-			flux = guessCoeff*(ts-air.TempC) + hr*(ts-air.SurroundingsC)
+			flux = guessCoeff*(ts-air.TempC) + hr*(ts-air.SurroundingsC) - p.surf.solar*air.SolarWm2
 			slope = guessCoeff + hr
 		default:
 			flux, slope = p.surf.roughExchange(ts, air)

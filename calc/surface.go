@@ -24,6 +24,21 @@ type surface struct {
 	lWind float64 // forced-convection length: D across a cylinder, plate length along the wind
 	emit  float64
 	fixed float64 // fixed combined coefficient, replaces convection + radiation when > 0
+	// solar is the absorbed part of Air.SolarWm2 per m² of this surface: absorptance
+	// times the share of the projected area (1/π for a cylinder, 1 for a face, 0 facing down).
+	solar float64
+}
+
+// solarShare is the absorbed sunlight per m² of surface for each W/m² on the projected
+// area, per unit absorptance (see Air.SolarWm2).
+func solarShare(kind surfKind) float64 {
+	switch kind {
+	case surfCylH, surfCylV:
+		return 1 / math.Pi
+	case surfPlateDown:
+		return 0
+	}
+	return 1
 }
 
 // surfState is the outer-surface exchange at one surface temperature.
@@ -39,14 +54,15 @@ type surfState struct {
 // plates swap their hot/cold-side correlations.
 func (s *surface) exchange(ts float64, air Air) surfState {
 	dt := ts - air.TempC
+	sun := s.solar * air.SolarWm2
 	if s.fixed > 0 {
-		return surfState{flux: s.fixed * dt, slope: s.fixed, hConv: s.fixed}
+		return surfState{flux: s.fixed*dt - sun, slope: s.fixed, hConv: s.fixed}
 	}
 	hc, g, note := s.hConvD(ts, air, false)
 	qr := RadiationFlux(s.emit, ts, air.SurroundingsC)
 	t := ts + kelvin
 	st := surfState{
-		flux:  hc*dt + qr,
+		flux:  hc*dt + qr - sun,
 		slope: hc + g + 4*s.emit*StefanBoltzmann*t*t*t,
 		hConv: hc,
 		note:  note,
@@ -165,10 +181,11 @@ func (s *surface) hConvD(ts float64, air Air, rough bool) (h, g float64, note st
 // iteration that follows evaluates the exact exchange.
 func (s *surface) roughExchange(ts float64, air Air) (flux, slope float64) {
 	dt := ts - air.TempC
+	sun := s.solar * air.SolarWm2
 	if s.fixed > 0 {
-		return s.fixed * dt, s.fixed
+		return s.fixed*dt - sun, s.fixed
 	}
 	hc, g, _ := s.hConvD(ts, air, true)
 	t := ts + kelvin
-	return hc*dt + RadiationFlux(s.emit, ts, air.SurroundingsC), hc + g + 4*s.emit*StefanBoltzmann*t*t*t
+	return hc*dt + RadiationFlux(s.emit, ts, air.SurroundingsC) - sun, hc + g + 4*s.emit*StefanBoltzmann*t*t*t
 }

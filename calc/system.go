@@ -86,6 +86,8 @@ type System struct {
 	// radiation (0 = use the correlations).
 	Emittance  float64
 	FixedCoeff float64 // W/m²·K
+	// SolarAbsorptance is the fraction of Air.SolarWm2 the outer surface absorbs.
+	SolarAbsorptance float64
 }
 
 // Air is the environment around the outer surface.
@@ -93,6 +95,11 @@ type Air struct {
 	TempC         float64 // dry-bulb air temperature, °C
 	SurroundingsC float64 // mean radiant temperature of the surroundings, °C
 	WindMS        float64 // air speed past the surface, m/s (0 = still air)
+	// SolarWm2 is sunlight on the surface's projected area, W/m² (0 = none). A pipe
+	// absorbs it over its diameter and spreads it round its circumference (1/π of it per
+	// m² of surface); a flat surface or a duct face takes it whole, as if the sun stood
+	// square to it (the safe side for personnel protection); a face looking down, none.
+	SolarWm2 float64
 }
 
 // LayerState is the solved state of one layer.

@@ -8,16 +8,17 @@ const (
 	maxDuctSide   = 10.0   // m
 	maxLength     = 1000.0 // m: heights, widths and plate sizes
 	maxLayers     = 10
-	maxThickness  = 1.0   // m per layer
-	maxWallK      = 1000  // W/m·K
-	maxCoeff      = 1e13  // W/m²·K: inside film (1e12 stands for "no film" in published examples)
-	maxFixedCoeff = 1e5   // W/m²·K
-	minFluidC     = -273  // °C
-	maxFluidC     = 1000  // °C: keeps film temperatures ≤ 600 °C
-	minAirC       = -100  // °C
-	maxAirC       = 200   // °C
-	maxSurrC      = 1000  // °C
-	maxWind       = 100.0 // m/s
+	maxThickness  = 1.0    // m per layer
+	maxSolar      = 1500.0 // W/m²: above the solar constant (1361 W/m²)
+	maxWallK      = 1000   // W/m·K
+	maxCoeff      = 1e13   // W/m²·K: inside film (1e12 stands for "no film" in published examples)
+	maxFixedCoeff = 1e5    // W/m²·K
+	minFluidC     = -273   // °C
+	maxFluidC     = 1000   // °C: keeps film temperatures ≤ 600 °C
+	minAirC       = -100   // °C
+	maxAirC       = 200    // °C
+	maxSurrC      = 1000   // °C
+	maxWind       = 100.0  // m/s
 )
 
 // Validate checks the geometry, layers and surface inputs of a system.
@@ -94,6 +95,8 @@ func validateConditions(fluidC float64, air Air) error {
 		return fmt.Errorf("calc: surroundings temperature %v °C must be between %d and %d °C", air.SurroundingsC, minAirC, maxSurrC)
 	case !inRange(air.WindMS, 0, maxWind):
 		return fmt.Errorf("calc: wind speed %v m/s must be between 0 and %g m/s", air.WindMS, maxWind)
+	case !inRange(air.SolarWm2, 0, maxSolar):
+		return fmt.Errorf("calc: solar flux %v W/m² must be between 0 and %g W/m²", air.SolarWm2, maxSolar)
 	}
 	return nil
 }
