@@ -412,8 +412,8 @@ func (a *analyser) unmet(c *criterion) string {
 		return "no available build keeps the surface above the dew point plus margin: use a material of lower conductivity, " +
 			"a jacket of higher emittance, or lower the humidity"
 	case critMaxHeatFlow:
-		return fmt.Sprintf("no available build keeps the heat flow at or below %s: use a material of lower conductivity "+
-			"or a jacket of lower emittance", fmtRound(*k.maxHeatFlow, 1))
+		return fmt.Sprintf("no available build keeps the heat flow at or below %s %s: use a material of lower conductivity "+
+			"or a jacket of lower emittance", fmtRound(*k.maxHeatFlow, 1), heatFlowUnit(l))
 	case critMaxTempChange:
 		return fmt.Sprintf("no available build keeps the temperature change within %s K; raise the flow or shorten the run", fmtRound(*k.maxTempChange, 1))
 	case critJacket:
@@ -481,13 +481,37 @@ func (a *analyser) energyCode(cands []float64) error {
 			s(", so the table thickness is corrected by T = r[(1 + t/r)^(K/k) − 1] with k = ").f(ref, 2).
 			s(" (the ").s(t.RefEnd).s(" end of the row's range)").String())
 	}
-	if len(l.base.Layers) > 1 {
-		l.assume("energy code: the total insulation thickness is compared, with the outermost layer's conductivity")
-	}
 	out.CorrectedMM = a.num(round(corrected, 2))
 	out.Pass = o.InsulationMM >= corrected-0.005
 	inner := o.InsulationMM - outer.Thickness*1000/l.installed[len(l.installed)-1]
 	need := corrected - inner
+	if n := len(l.base.Layers); n > 1 {
+		// Several layers: by thermal resistance per metre, each layer at its own k at the
+		// table's mean rating temperature, against the table thickness at the reference k
+		// (the basis of the footnote correction, which assumes one material).
+		r0 := l.base.PipeOD / 2
+		r, rInner := r0, 0.0
+		for _, ly := range l.base.Layers[:n-1] {
+			k, _ := ly.K.At(meanC)
+			rInner += math.Log((r+ly.Thickness)/r) / (2 * math.Pi * k)
+			r += ly.Thickness
+		}
+		rReq := math.Log((r0+tableMM/1000)/r0) / (2 * math.Pi * t.RefK(*row) * btuInToSI)
+		rBuild := rInner + math.Log((r+outer.Thickness)/r)/(2*math.Pi*kSI)
+		out.Pass = rBuild >= rReq*(1-1e-9)
+		a.codeResistance = &[2]float64{rBuild, rReq}
+		x := 0.0 // the outer layer (installed) that brings the inner ones to the requirement
+		if rReq > rInner {
+			x = r * (math.Exp((rReq-rInner)*2*math.Pi*kSI) - 1)
+		}
+		need = x * 1000 / l.installed[n-1]
+		corrected = inner + need
+		out.CorrectedMM = a.num(round(corrected, 2))
+		var buf [256]byte
+		l.assumeText(words{buf[:0]}.s("energy code: a build of several layers is judged by its thermal resistance per metre, each layer at its own k at ").
+			f(row.MeanRatingF, 0).s(" °F: ").f(rBuild, 3).s(" m·K/W against ").f(rReq, 3).
+			s(" m·K/W for the table thickness at k = ").f(t.RefK(*row), 2).s(" Btu·in/h·ft²·°F; corrected_mm is the total that meets it with the inner layers as given").String())
+	}
 	for _, c := range cands {
 		if c >= need-0.005 {
 			if ok, err := a.admissible(c); err != nil {

@@ -463,6 +463,15 @@ func resolvePipe(l *line, c *errs) {
 	}
 }
 
+// heatFlowUnit is the unit of max_heat_flow_w_per_m for this line: W/m², per m² of
+// surface, on flat surfaces; W/m elsewhere.
+func heatFlowUnit(l *line) string {
+	if l.shape.IsFlat() {
+		return "W/m²"
+	}
+	return "W/m"
+}
+
 // sizeForOD places a plain outside diameter in its tube family (copper tube for copper,
 // steel pipe otherwise): a standard OD within 0.5 mm gives its nominal size, any other
 // OD is read in inches against the column bounds itself.
@@ -963,6 +972,12 @@ func resolveSurface(l *line, r Resolver, c *errs) {
 		}
 		l.assumeText("solar absorptance " + fmtNum(l.base.SolarAbsorptance) + " of the outer surface for personnel protection: " + src)
 	}
+	if in.SurfaceCoeff != nil && len(in.Layers) == 0 {
+		// A fixed coefficient on a bare line would be compared with a bare heat flow from
+		// the correlations: the two would not agree. Refused rather than half applied.
+		c.add("surface_coeff_w_m2k", "applies to the insulated surface only: give layers, or leave it out for a bare line")
+		c.add("layers", "a bare line takes no surface_coeff_w_m2k (the bare surface uses the correlations)")
+	}
 	if in.SurfaceCoeff != nil {
 		l.base.FixedCoeff = *in.SurfaceCoeff
 		l.assume("fixed surface coefficient %s W/m²·K on the insulated surface (replaces convection and radiation)", fmtNum(*in.SurfaceCoeff))
@@ -1054,7 +1069,7 @@ func resolveCriteria(l *line, r Resolver, c *errs) {
 	k := &l.crit
 	rangeCheck(c, "criteria.max_surface_temp_c", cr.MaxSurfaceTempC, 20, 200, "°C")
 	rangeCheck(c, "criteria.dew_margin_k", cr.DewMarginK, 0, 20, "K")
-	positiveCheck(c, "criteria.max_heat_flow_w_per_m", cr.MaxHeatFlowWPerM, 1e6, "W/m")
+	positiveCheck(c, "criteria.max_heat_flow_w_per_m", cr.MaxHeatFlowWPerM, 1e6, heatFlowUnit(l))
 	positiveCheck(c, "criteria.max_temp_change_k", cr.MaxTempChangeK, 500, "K")
 	positiveCheck(c, "criteria.freeze_hours", cr.FreezeHours, 8760, "h")
 	rangeCheck(c, "criteria.maintain_temp_c", cr.MaintainTempC, 0.5, 300, "°C")
