@@ -10,7 +10,7 @@ package calc
 
 // MethodVersion changes whenever a method in this package changes results, so stored
 // results computed with an older method are recognised as stale.
-const MethodVersion = "1.6"
+const MethodVersion = "1.7"
 
 // Shape is the geometry and orientation of the insulated surface.
 type Shape int
