@@ -85,8 +85,9 @@ func (s *Server) lineView(c *lineCtx, st *formState, res web.LineResults) web.Li
 	if c.line.ID != 0 {
 		v.SavedURL = c.lineURL()
 	}
-	for _, f := range lineNumFields {
-		v.Units[f.Key] = f.unitLabel(c.sys)
+	geometry := shapeGeometry(st.Values.Get("shape"))
+	for _, n := range lineNums {
+		v.Units[n.Key] = n.onShape(geometry).unitLabel(c.sys)
 	}
 	for _, sh := range shapes {
 		v.Shapes = append(v.Shapes, web.Choice{Value: sh.value, Label: sh.label})

@@ -141,6 +141,26 @@ func fittingFinishField(f *analysis.FittingFinish, kind string) *string {
 	return &f.Reducers
 }
 
+// onShape is the field as a line of the given geometry reads it: a flat surface's
+// maximum heat flow is per square metre (heat flux), a pipe's or duct's per metre.
+func (n lineNum) onShape(geometry string) numField {
+	f := n.numField
+	if f.Key == "criteria.max_heat_flow_w_per_m" && geometry == "flat" {
+		f.Q, f.Label = units.HeatFlux, "Maximum heat flux"
+	}
+	return f
+}
+
+// shapeGeometry is the geometry of a shape choice of the form ("" when unknown).
+func shapeGeometry(shape string) string {
+	for _, s := range shapes {
+		if s.value == shape {
+			return s.geometry
+		}
+	}
+	return ""
+}
+
 // lineNumFields are lineNums' fields (labels and units).
 var lineNumFields = func() []numField {
 	out := make([]numField, len(lineNums))
@@ -269,7 +289,7 @@ func lineFormFromRequest(r *http.Request, sys units.System, keep *analysis.Input
 	in.Jacket, in.System = strings.TrimSpace(pf.Get("jacket")), strings.TrimSpace(pf.Get("system"))
 	in.VapourRetarder = strings.TrimSpace(pf.Get("vapour_retarder"))
 	for _, n := range lineNums {
-		if v, ok := readNum(r, n.numField, sys, st); ok {
+		if v, ok := readNum(r, n.onShape(in.Geometry), sys, st); ok {
 			x := v.(float64)
 			*n.at(in) = &x
 		}
@@ -490,7 +510,7 @@ func lineFormValues(l store.Line, in analysis.Input, fit analysis.Fittings, sys 
 	shown := in // the accessors allocate parents: read from a copy
 	for _, n := range lineNums {
 		if p := *n.at(&shown); p != nil {
-			setShown(st, n.numField, sys, *p)
+			setShown(st, n.onShape(in.Geometry), sys, *p)
 		}
 	}
 	for _, n := range fittingCounts {
