@@ -162,7 +162,7 @@ func (p *projectInput) project() store.Project {
 func projectFormFromRequest(r *http.Request) (*formState, projectInput) {
 	st := newFormState()
 	var in projectInput
-	for _, k := range []string{"name", "client", "site", "units", "version", "settings.criteria.energy_code", "settings.economics.currency"} {
+	for _, k := range []string{"name", "client", "site", "units", "version", "settings.criteria.energy_code", "settings.criteria.touch_exposure", "settings.economics.currency"} {
 		st.Values.Set(k, r.PostForm.Get(k))
 	}
 	in.Name, in.Client, in.Site = r.PostForm.Get("name"), r.PostForm.Get("client"), r.PostForm.Get("site")
@@ -180,6 +180,9 @@ func projectFormFromRequest(r *http.Request) (*formState, projectInput) {
 	}
 	if c := r.PostForm.Get("settings.criteria.energy_code"); c != "" {
 		formSetPath(m, "settings.criteria.energy_code", c)
+	}
+	if c := strings.TrimSpace(r.PostForm.Get("settings.criteria.touch_exposure")); c != "" {
+		formSetPath(m, "settings.criteria.touch_exposure", c)
 	}
 	if c := strings.ToUpper(strings.TrimSpace(r.PostForm.Get("settings.economics.currency"))); c != "" {
 		formSetPath(m, "settings.economics.currency", c)
@@ -210,6 +213,7 @@ func projectFormValues(p store.Project, set analysis.ProjectSettings) *formState
 	st.Values.Set("units", p.Units)
 	st.Values.Set("version", strconv.Itoa(p.Version))
 	st.Values.Set("settings.criteria.energy_code", set.Criteria.EnergyCode)
+	st.Values.Set("settings.criteria.touch_exposure", set.Criteria.TouchExposure)
 	if set.Economics != nil {
 		st.Values.Set("settings.economics.currency", set.Economics.Currency)
 	}
