@@ -46,7 +46,7 @@ func previous(cands []float64, t float64) float64 {
 }
 
 // For every criterion the chosen thickness meets it at the criterion's own conditions
-// and the next thinner candidate does not (property; the criteria of DESIGN.md).
+// and the next thinner candidate does not (property: each criterion as docs/calc-json.md defines it).
 func TestChosenThicknessMeetsAndThinnerFails(t *testing.T) {
 	hot := parse(t, `{"geometry":"pipe","pipe_size":"NPS 6","operating_temp_c":250,"ambient_temp_c":20,"wind_m_s":3,
 		"conditions":{"personnel":{"ambient_temp_c":35}},
@@ -256,7 +256,7 @@ func solvesOf(tb testing.TB, js []byte) (solves, evals int) {
 // the analysis solves 9 balances (computed): the bare surface, the six priced thicknesses
 // (50.8 mm is the thickness as specified), and 12.7 and 152.4 mm, which only the bisections
 // of personnel protection and maximum heat flow probe. The energy code needs no balance.
-// Each solve takes at most 6 residual evaluations (DESIGN.md).
+// Each solve takes at most 6 residual evaluations (our own bound on the sizing search).
 func TestSolvesShared(t *testing.T) {
 	solves, evals := solvesOf(t, benchLine)
 	t.Logf("%d solves, %d residual evaluations", solves, evals)

@@ -241,7 +241,7 @@ func peakRSS() int64 {
 func mb(b int64) string { return fmt.Sprintf("%.0f MB", float64(b)/(1<<20)) }
 
 // recompute times what a method change costs a whole project: every line's effective
-// input analysed on both cores, then every result stored (the DESIGN.md target is for
+// input analysed on both cores, then every result stored (the target in docs/performance.md is for
 // the two together).
 func recompute(ctx context.Context, st *store.Store, p store.Project) error {
 	set, err := results.Settings(p)
