@@ -55,7 +55,7 @@ type FittingFinish struct {
 
 // Of gives the finish of a kind ("" reads as insulated).
 func (f FittingFinish) Of(kind string) string {
-	if p := f.at(kind); p != nil && *p != "" {
+	if p := f.Field(kind); p != nil && *p != "" {
 		return *p
 	}
 	return FinishInsulated
@@ -63,12 +63,14 @@ func (f FittingFinish) Of(kind string) string {
 
 // Set sets the finish of a kind.
 func (f *FittingFinish) Set(kind, finish string) {
-	if p := f.at(kind); p != nil {
+	if p := f.Field(kind); p != nil {
 		*p = finish
 	}
 }
 
-func (f *FittingFinish) at(kind string) *string {
+// Field is the finish field of a kind, for forms and import columns that fill it
+// (nil for an unknown kind).
+func (f *FittingFinish) Field(kind string) *string {
 	switch kind {
 	case "elbows":
 		return &f.Elbows

@@ -117,29 +117,10 @@ var lineChoices = func() []lineChoice {
 		{"supports.kind", func(in *analysis.Input) *string { return &supportsAt(in).Kind }},
 	}
 	for _, k := range catalog.FittingKinds {
-		out = append(out, lineChoice{"fitting_finish." + k, func(in *analysis.Input) *string { return fittingFinishField(finishAt(in), k) }})
+		out = append(out, lineChoice{"fitting_finish." + k, func(in *analysis.Input) *string { return finishAt(in).Field(k) }})
 	}
 	return out
 }()
-
-// fittingFinishField is the field of one kind in f.
-func fittingFinishField(f *analysis.FittingFinish, kind string) *string {
-	switch kind {
-	case "elbows":
-		return &f.Elbows
-	case "tees":
-		return &f.Tees
-	case "valves":
-		return &f.Valves
-	case "flange_pairs":
-		return &f.FlangePairs
-	case "caps":
-		return &f.Caps
-	case "strainers":
-		return &f.Strainers
-	}
-	return &f.Reducers
-}
 
 // onShape is the field as a line of the given geometry reads it: a flat surface's
 // maximum heat flow is per square metre (heat flux), a pipe's or duct's per metre.

@@ -144,12 +144,12 @@ func buildColumns() []column {
 		count("reducers", func(f *analysis.Fittings) *int { return &f.Reducers }),
 	}
 	for _, k := range catalog.FittingKinds {
-		cols = append(cols, text(k+"_finish", "fitting_finish."+k, func(b *builder) *string { return finishAt(&b.finish, k) },
+		cols = append(cols, text(k+"_finish", "fitting_finish."+k, func(b *builder) *string { return b.finish.Field(k) },
 			func(r *Row) string {
 				if r.Input.FittingFinish == nil {
 					return ""
 				}
-				return *finishAt(r.Input.FittingFinish, k)
+				return *r.Input.FittingFinish.Field(k)
 			}))
 	}
 	cols = append(cols,
@@ -332,25 +332,6 @@ func (c column) unitHelp() string {
 		}
 	}
 	return strings.Join(s, " or ")
-}
-
-// finishAt is the finish of a fitting kind in f.
-func finishAt(f *analysis.FittingFinish, kind string) *string {
-	switch kind {
-	case "elbows":
-		return &f.Elbows
-	case "tees":
-		return &f.Tees
-	case "valves":
-		return &f.Valves
-	case "flange_pairs":
-		return &f.FlangePairs
-	case "caps":
-		return &f.Caps
-	case "strainers":
-		return &f.Strainers
-	}
-	return &f.Reducers
 }
 
 func supports(in *analysis.Input) *analysis.Supports {

@@ -598,7 +598,7 @@ func finish(b *builder, h *header, rowNo int, c *collector) {
 	if b.finish != (analysis.FittingFinish{}) {
 		f := b.finish
 		for _, k := range catalog.FittingKinds {
-			p := finishAt(&f, k)
+			p := f.Field(k)
 			*p = strings.ToLower(*p)
 		}
 		in.FittingFinish = &f
