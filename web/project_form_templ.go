@@ -60,8 +60,8 @@ type LocationFields struct {
 
 // touchExposures are the touch-limit presets of the project form, each with its basis.
 var touchExposures = []Choice{
-	{Value: "", Label: "Plant and industrial areas: contact of a few seconds, 60 °C / 140 °F (ASTM C1055 basis; default)"},
-	{Value: "public", Label: "Areas used by the public or patients: a lower limit you set (caution)"},
+	{Value: "", Label: "Plant areas: 60 °C / 140 °F (ASTM C1055)"},
+	{Value: "public", Label: "Public or patient areas: your lower limit"},
 }
 
 // ConditionRow is one condition set (design, or one criterion's) in the conditions table.
@@ -1168,7 +1168,7 @@ func ProjectForm(v ProjectFormView) templ.Component {
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = entrySelect(v.EntryForm, "settings.criteria.touch_exposure", "Who may touch the surface", touchExposures, "The touch limit below follows from it. Where the public or patients can touch a surface, set a lower limit yourself and check it against the adopted code.").Render(ctx, templ_7745c5c3_Buffer)
+			templ_7745c5c3_Err = entrySelect(v.EntryForm, "settings.criteria.touch_exposure", "Who may touch the surface", touchExposures, "Plant areas: brief contact by trained staff (the default). Where the public or patients can touch a surface, set a lower limit below and check it against the adopted code.").Render(ctx, templ_7745c5c3_Buffer)
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
